@@ -1,0 +1,40 @@
+#!/usr/bin/env bash
+# npm start: set everything up that is missing, then serve API and client on one port.
+set -euo pipefail
+source "$(dirname "$0")/lib.sh"
+cd "$ROOT"
+
+ensure_node_modules
+DB_NAME="${PW_DB_NAME:-placewright}"
+bash scripts/db.sh ensure-db "$DB_NAME"
+export DATABASE_URL="${DATABASE_URL:-$(bash scripts/db.sh url "$DB_NAME")}"
+export NODE_ENV="${NODE_ENV:-development}"
+
+log "migrating"
+node --import tsx server/db/migrate.ts
+if [ "${PW_DEMO_SEED:-1}" = 1 ]; then
+  log "seeding the demo scenario (set PW_DEMO_SEED=0 to skip)"
+  node --import tsx server/db/seed.ts
+fi
+if [ "${PW_SKIP_BUILD:-0}" != 1 ]; then
+  log "building the client"
+  npx vite build --logLevel error >&2
+fi
+
+PORT="${PORT:-3000}"
+cat >&2 <<MSG
+
+  Placewright  →  http://localhost:$PORT/
+
+  Demo sign-ins (password for all: harrow-creek-demo; they exist only because the demo seed ran):
+    admin      ada@harrowcreek.example
+    engineer   ellis@harrowcreek.example   (author)
+    engineer   rowan@harrowcreek.example   (reviewer)
+    librarian  lena@harrowcreek.example
+    operator   otto@harrowcreek.example
+
+  Stop with Ctrl-C; \`npm run db:stop\` stops the database.
+
+MSG
+export PORT
+exec node --import tsx server/index.ts

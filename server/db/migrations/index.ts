@@ -1,0 +1,4 @@
+import { Platform1796183457559 } from './1796183457559-Platform';
+
+/** Every migration, in order. Add a new one here after `npm run migration:generate -- server/db/migrations/Name`. */
+export const migrations = [Platform1796183457559];

@@ -1,0 +1,59 @@
+import express, { type RequestHandler, type Router } from 'express';
+import type { Role } from '../../shared/schemas/auth.schema';
+import { ForbiddenError, UnauthenticatedError } from './errors';
+
+/**
+ * Who may call a route. Every API route names its access here; there is no default.
+ * - `public`: anyone, signed in or not (sign-in, health, CSRF token)
+ * - `signed-in`: any active user
+ * - a list of roles: users holding at least one of them (admin holds every role's rights)
+ */
+export type Access = 'public' | 'signed-in' | readonly Role[];
+
+export interface RouteSpec {
+  method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+  path: string;
+  access: Access;
+}
+
+export function hasAccess(user: Express.User | undefined, access: Access): boolean {
+  if (access === 'public') return true;
+  if (!user) return false;
+  if (access === 'signed-in') return true;
+  if (user.roles.includes('admin')) return true;
+  return access.some((r) => user.roles.includes(r));
+}
+
+export function guard(access: Access): RequestHandler {
+  return (req, _res, next) => {
+    if (access === 'public') return next();
+    if (!req.user) throw new UnauthenticatedError();
+    if (!hasAccess(req.user, access)) {
+      throw new ForbiddenError(
+        `This needs the ${(access as readonly Role[]).join(' or ')} role; you are signed in as ${req.user.roles.join(', ') || 'no role'}.`,
+      );
+    }
+    next();
+  };
+}
+
+/**
+ * Collects the API's routes with their access rules, so that a table-driven test can walk every
+ * registered route for every role. Build one per app; feature modules add their routes to it.
+ */
+export class ApiRoutes {
+  readonly specs: RouteSpec[] = [];
+  readonly router: Router = express.Router();
+
+  private add(method: RouteSpec['method'], path: string, access: Access, handlers: RequestHandler[]) {
+    this.specs.push({ method, path, access });
+    const m = method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
+    this.router[m](path, guard(access), ...handlers);
+  }
+
+  get(path: string, access: Access, ...h: RequestHandler[]) { this.add('GET', path, access, h); }
+  post(path: string, access: Access, ...h: RequestHandler[]) { this.add('POST', path, access, h); }
+  put(path: string, access: Access, ...h: RequestHandler[]) { this.add('PUT', path, access, h); }
+  patch(path: string, access: Access, ...h: RequestHandler[]) { this.add('PATCH', path, access, h); }
+  delete(path: string, access: Access, ...h: RequestHandler[]) { this.add('DELETE', path, access, h); }
+}

@@ -1,0 +1,84 @@
+import type { z } from 'zod';
+import { problemSchema, type Problem } from '../../shared/schemas/problem.schema';
+
+/** An API answer other than 2xx, with the server's problem body. */
+export class ApiError extends Error {
+  constructor(readonly problem: Problem) {
+    super(problem.detail || problem.title);
+    this.name = 'ApiError';
+  }
+  get status() {
+    return this.problem.status;
+  }
+  /** The message for one form field, if the server named it. */
+  fieldError(path: string): string | undefined {
+    return this.problem.errors.find((e) => e.path === path)?.message;
+  }
+}
+
+let csrfToken: string | null = null;
+
+async function fetchCsrfToken(): Promise<string> {
+  const res = await fetch('/api/auth/csrf', { credentials: 'same-origin' });
+  const body = (await res.json()) as { token: string };
+  csrfToken = body.token;
+  return csrfToken;
+}
+
+export function setCsrfToken(token: string | null) {
+  csrfToken = token;
+}
+
+interface RequestOptions<S extends z.ZodType> {
+  method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+  body?: unknown;
+  schema?: S;
+  signal?: AbortSignal;
+}
+
+async function toProblem(res: Response): Promise<Problem> {
+  try {
+    const parsed = problemSchema.safeParse(await res.json());
+    if (parsed.success) return parsed.data;
+  } catch {
+    /* not JSON */
+  }
+  return { status: res.status, title: res.statusText || 'Error', detail: `The server answered ${res.status}.`, errors: [] };
+}
+
+/** Fetches JSON from the API; parses it with the shared zod schema when given one. */
+export async function api<S extends z.ZodType = z.ZodUnknown>(path: string, opts: RequestOptions<S> = {}): Promise<z.infer<S>> {
+  const method = opts.method ?? 'GET';
+  const send = async (retry: boolean): Promise<Response> => {
+    const headers: Record<string, string> = { Accept: 'application/json' };
+    if (opts.body !== undefined && !(opts.body instanceof FormData)) headers['Content-Type'] = 'application/json';
+    if (method !== 'GET') headers['X-CSRF-Token'] = csrfToken ?? (await fetchCsrfToken());
+    const res = await fetch(`/api${path}`, {
+      method,
+      headers,
+      credentials: 'same-origin',
+      signal: opts.signal,
+      body: opts.body === undefined ? undefined : opts.body instanceof FormData ? opts.body : JSON.stringify(opts.body),
+    });
+    if (res.status === 403 && method !== 'GET' && retry) {
+      const copy = res.clone();
+      const p = await toProblem(copy);
+      if (/csrf/i.test(p.title)) {
+        await fetchCsrfToken();
+        return send(false);
+      }
+    }
+    return res;
+  };
+  let res: Response;
+  try {
+    res = await send(true);
+  } catch (err) {
+    if ((err as Error).name === 'AbortError') throw err;
+    throw new ApiError({ status: 0, title: 'No connection', detail: 'The server could not be reached. Check your connection and try again.', errors: [] });
+  }
+  if (!res.ok) throw new ApiError(await toProblem(res));
+  if (res.status === 204) return undefined as z.infer<S>;
+  const data = await res.json();
+  return opts.schema ? opts.schema.parse(data) : data;
+}
