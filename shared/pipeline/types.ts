@@ -169,8 +169,11 @@ export interface BoardTransform {
 
 export interface UnmatchedFootprint {
   footprint: string;
+  /** parts of the board design (on this side, DNP excluded) with this footprint */
   count: number;
-  /** references (first board's numbering, unique refs) */
+  /** placements in this result with this footprint (count × boards placed) */
+  placements: number;
+  /** their references, in file order */
   refs: string[];
 }
 

@@ -1,0 +1,437 @@
+// Centroid import: dialect sniffing, header mapping, units, normalisation (CLI.md "Import").
+import Papa from 'papaparse';
+import { MM_PER_UNIT, normDeg } from '../geometry';
+import { EngineInputError } from '../pipeline/errors';
+import type {
+  BottomRotation,
+  CentroidDialect,
+  ColumnMapping,
+  EngineWarning,
+  ImportResult,
+  ImportedPlacement,
+  Side,
+  Units,
+} from '../pipeline/types';
+import { analyseHeader, FIELDS, REQUIRED_FIELDS, type Field, type HeaderInfo } from './headers';
+import { parseFlagCell, parseNumberCell, parseRotationCell, parseSideCell } from './values';
+
+export interface ImportOptions {
+  /** units given by the user; overrides the header */
+  units?: Units;
+  /** where `units` came from (for the dialect report) */
+  unitsSource?: 'option' | 'job';
+  bottomRotation?: BottomRotation;
+  /** field → header cell as written (case-insensitive) */
+  map?: Partial<Record<Field, string>>;
+  /** file name for error messages */
+  file?: string;
+}
+
+const DELIMS = [',', ';', '\t'] as const;
+type Delim = (typeof DELIMS)[number];
+const HEADER_SCAN_LINES = 200;
+const UNIT_CODE: Record<Units, number> = { mm: 1, mil: 2, in: 3 };
+const CODE_UNIT: (Units | null)[] = [null, 'mm', 'mil', 'in'];
+
+/** Split one line on a delimiter, honouring double quotes (for header sniffing only). */
+function splitLine(line: string, delim: string): string[] {
+  if (line.indexOf('"') < 0) return line.split(delim);
+  const out: string[] = [];
+  let cur = '';
+  let q = false;
+  for (let i = 0; i < line.length; i++) {
+    const ch = line[i];
+    if (q) {
+      if (ch === '"') {
+        if (line[i + 1] === '"') {
+          cur += '"';
+          i++;
+        } else q = false;
+      } else cur += ch;
+    } else if (ch === '"') q = true;
+    else if (ch === delim) {
+      out.push(cur);
+      cur = '';
+    } else cur += ch;
+  }
+  out.push(cur);
+  return out;
+}
+
+interface HeaderCandidate {
+  line: number;
+  /** offset in text just after this line's end */
+  next: number;
+  delim: Delim;
+  infos: HeaderInfo[];
+  fields: Map<Field, number>;
+}
+
+function isCommentLine(t: string): boolean {
+  return t.startsWith('#') || t.startsWith('//') || t.startsWith(';') && t.length > 1 && !t.slice(1).includes(';');
+}
+
+function mapFields(infos: HeaderInfo[], map: Partial<Record<Field, string>>): Map<Field, number> {
+  const fields = new Map<Field, number>();
+  const taken = new Set<number>();
+  for (const f of FIELDS) {
+    const want = map[f];
+    if (want === undefined) continue;
+    const w = want.trim().toLowerCase();
+    const idx = infos.findIndex((h) => h.raw.toLowerCase() === w);
+    if (idx >= 0) {
+      fields.set(f, idx);
+      taken.add(idx);
+    }
+  }
+  infos.forEach((h, i) => {
+    if (h.field && !fields.has(h.field) && !taken.has(i) && map[h.field] === undefined) fields.set(h.field, i);
+  });
+  return fields;
+}
+
+/**
+ * Import a centroid file. Throws EngineInputError (file, line, column) on bad input.
+ */
+export function importCentroid(input: string, opts: ImportOptions = {}): ImportResult {
+  const file = opts.file;
+  const map = opts.map ?? {};
+  const warnings: EngineWarning[] = [];
+  const err = (msg: string, f: { line?: number; column?: string; field?: string; code?: string } = {}) =>
+    new EngineInputError(msg, { file, ...f });
+
+  for (const k of Object.keys(map)) {
+    if (!(FIELDS as readonly string[]).includes(k)) {
+      throw err(`unknown field "${k}" in the column map; expected one of ${FIELDS.join(', ')}`, {
+        field: `map.${k}`,
+        code: 'bad-map',
+      });
+    }
+  }
+
+  let text = input;
+  const bom = text.charCodeAt(0) === 0xfeff;
+  if (bom) text = text.slice(1);
+  let lineEnding: CentroidDialect['lineEnding'] = '\n';
+  if (text.indexOf('\r\n') >= 0) lineEnding = '\r\n';
+  else if (text.indexOf('\r') >= 0) {
+    lineEnding = '\r';
+    text = text.replace(/\r/g, '\n');
+  }
+
+  // ---- header sniffing ----------------------------------------------------------------------
+  let header: HeaderCandidate | null = null;
+  let nearMiss: HeaderCandidate | null = null;
+  let nearMissScore = 0;
+  let pos = 0;
+  let lineNo = 0;
+  let sawContent = false;
+  while (pos <= text.length && lineNo < HEADER_SCAN_LINES) {
+    let end = text.indexOf('\n', pos);
+    if (end < 0) end = text.length;
+    lineNo++;
+    let line = text.slice(pos, end);
+    if (line.endsWith('\r')) line = line.slice(0, -1);
+    const next = end + 1;
+    const t = line.trim();
+    if (t !== '' && !isCommentLine(t)) {
+      sawContent = true;
+      let best: HeaderCandidate | null = null;
+      let bestScore = -1;
+      for (const delim of DELIMS) {
+        const cells = splitLine(line, delim);
+        if (cells.length < 2) continue;
+        const infos = cells.map(analyseHeader);
+        const fields = mapFields(infos, map);
+        const score = fields.size;
+        if (score > bestScore) {
+          bestScore = score;
+          best = { line: lineNo, next, delim, infos, fields };
+        }
+      }
+      if (best && best.fields.has('ref') && best.fields.has('x') && best.fields.has('y')) {
+        header = best;
+        break;
+      }
+      if (best && bestScore >= 3 && bestScore > nearMissScore) {
+        nearMiss = best;
+        nearMissScore = bestScore;
+      }
+    }
+    if (end >= text.length) break;
+    pos = next;
+  }
+  if (!header) {
+    if (!sawContent) throw err('the file is empty: no header and no data rows', { code: 'empty' });
+    if (nearMiss) {
+      const missing = (['ref', 'x', 'y'] as Field[]).filter((f) => !nearMiss!.fields.has(f));
+      throw err(
+        `missing required column ${missing.map(fieldLabel).join(', ')} in the header row; ` +
+          `found ${nearMiss.infos.map((h) => `"${h.raw}"`).join(', ')} (map one with --map FIELD=HEADER)`,
+        { line: nearMiss.line, field: missing[0], code: 'missing-column' },
+      );
+    }
+    throw err('no header row found: expected columns for reference, X and Y (e.g. "Ref,X,Y,Rot")', {
+      code: 'no-header',
+    });
+  }
+  const { delim, infos, fields } = header;
+  const headerLine = header.line;
+  for (const f of FIELDS) {
+    const want = map[f];
+    if (want !== undefined && !fields.has(f)) {
+      throw err(`--map ${f}=${want}: no column "${want}" in the header (${infos.map((h) => `"${h.raw}"`).join(', ')})`, {
+        line: headerLine,
+        field: `map.${f}`,
+        code: 'bad-map',
+      });
+    }
+  }
+  for (const f of REQUIRED_FIELDS) {
+    if (!fields.has(f)) {
+      throw err(`missing required column ${fieldLabel(f)} in the header row (map one with --map ${f}=HEADER)`, {
+        line: headerLine,
+        field: f,
+        code: 'missing-column',
+      });
+    }
+  }
+  infos.forEach((h, i) => {
+    if (h.field && fields.get(h.field) !== i && map[h.field] === undefined) {
+      warnings.push({
+        line: headerLine,
+        message: `column "${h.raw}" also reads as ${h.field}; using "${infos[fields.get(h.field)!].raw}"`,
+        code: 'duplicate-column',
+      });
+    }
+  });
+  const columns: ColumnMapping = {};
+  for (const [f, i] of fields) columns[f] = infos[i].raw;
+
+  // ---- data rows ----------------------------------------------------------------------------
+  const body = header.next <= text.length ? text.slice(header.next) : '';
+  const parsed = Papa.parse<string[]>(body, {
+    delimiter: delim,
+    newline: lineEnding === '\r\n' ? '\r\n' : '\n',
+    skipEmptyLines: false,
+    header: false,
+  });
+  const rows = parsed.data;
+  const hasQuotes = body.indexOf('"') >= 0;
+
+  const iRef = fields.get('ref')!;
+  const iX = fields.get('x')!;
+  const iY = fields.get('y')!;
+  const iRot = fields.get('rotation')!;
+  const iSide = fields.get('side') ?? -1;
+  const iFp = fields.get('footprint') ?? -1;
+  const iVal = fields.get('value') ?? -1;
+  const iPn = fields.get('partNumber') ?? -1;
+  const iDnp = fields.get('dnp') ?? -1;
+  const dnpInverted = iDnp >= 0 && infos[iDnp].invertedDnp;
+  const minCells = Math.max(iRef, iX, iY, iRot) + 1;
+
+  // decimal comma: a numeric cell with a comma in the first rows
+  let decimalComma = false;
+  for (let r = 0, seen = 0; r < rows.length && seen < 50; r++) {
+    const row = rows[r];
+    if (row.length < minCells) continue;
+    seen++;
+    if (/^\s*[-+]?\d*,\d+/.test(row[iX]) || /^\s*[-+]?\d*,\d+/.test(row[iY])) {
+      decimalComma = true;
+      break;
+    }
+  }
+
+  const n = rows.length;
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  const xu = new Uint8Array(n);
+  const yu = new Uint8Array(n);
+  const kept: number[] = [];
+  const lines = new Int32Array(n);
+  const placements: ImportedPlacement[] = [];
+  const seenRefs = new Map<string, number>();
+  const bottomRotation = opts.bottomRotation ?? 'bottom-view';
+  let firstSuffix: { unit: Units; line: number } | null = null;
+  let anyPlain = false;
+  let firstPlainLine = 0;
+
+  let line = headerLine + 1;
+  for (let r = 0; r < n; r++) {
+    const row = rows[r];
+    const rowLine = line;
+    line++;
+    if (hasQuotes) {
+      for (let c = 0; c < row.length; c++) {
+        const cell = row[c];
+        if (cell.indexOf('\n') >= 0) line += cell.split('\n').length - 1;
+      }
+    }
+    if (row.length === 1 && row[0].trim() === '') continue;
+    const first = row[0].trimStart();
+    if (first.startsWith('#') || first.startsWith('//')) continue;
+    if (row.length < minCells) {
+      if (row.every((c) => c.trim() === '')) continue;
+      throw err(`expected at least ${minCells} columns, found ${row.length}`, { line: rowLine, code: 'short-row' });
+    }
+    const ref = row[iRef].trim();
+    if (ref === '') throw err('empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' });
+    const prev = seenRefs.get(ref);
+    if (prev !== undefined) {
+      throw err(`duplicate reference "${ref}" (first on line ${prev})`, {
+        line: rowLine,
+        column: infos[iRef].raw,
+        code: 'duplicate-ref',
+      });
+    }
+    seenRefs.set(ref, rowLine);
+
+    const px = parseNumberCell(row[iX], decimalComma);
+    if (!px) throw badNumber(row[iX], rowLine, infos[iX].raw);
+    const py = parseNumberCell(row[iY], decimalComma);
+    if (!py) throw badNumber(row[iY], rowLine, infos[iY].raw);
+    const rot = parseRotationCell(row[iRot], decimalComma);
+    if (rot === null) throw badNumber(row[iRot], rowLine, infos[iRot].raw);
+    const idx = placements.length;
+    xs[idx] = px.value;
+    ys[idx] = py.value;
+    if (px.unit) xu[idx] = UNIT_CODE[px.unit];
+    if (py.unit) yu[idx] = UNIT_CODE[py.unit];
+    if (px.unit || py.unit) {
+      if (!firstSuffix) firstSuffix = { unit: (px.unit ?? py.unit)!, line: rowLine };
+    }
+    if (!px.unit || !py.unit) {
+      if (!anyPlain) firstPlainLine = rowLine;
+      anyPlain = true;
+    }
+
+    let side: Side = 'top';
+    if (iSide >= 0) {
+      const s = parseSideCell(row[iSide] ?? '');
+      if (!s) {
+        throw err(
+          `unrecognised side "${(row[iSide] ?? '').trim()}"; expected top/bottom, t/b, top/bot, front/back, f/b or component/solder`,
+          { line: rowLine, column: infos[iSide].raw, code: 'bad-side' },
+        );
+      }
+      side = s;
+    }
+    let dnp = false;
+    if (iDnp >= 0) {
+      const f = parseFlagCell(row[iDnp] ?? '');
+      if (f === null) {
+        throw err(`unrecognised do-not-place value "${(row[iDnp] ?? '').trim()}"; expected yes/no, true/false, 1/0 or x/empty`, {
+          line: rowLine,
+          column: infos[iDnp].raw,
+          code: 'bad-flag',
+        });
+      }
+      dnp = dnpInverted ? !f : f;
+    }
+    let rotation = rot;
+    if (side === 'bottom') {
+      if (bottomRotation === 'negate') rotation = -rot;
+      else if (bottomRotation === 'mirror-180') rotation = 180 - rot;
+    }
+    lines[idx] = rowLine;
+    kept.push(r);
+    placements.push({
+      ref,
+      x: 0,
+      y: 0,
+      rotation: normDeg(rotation),
+      side,
+      footprint: iFp >= 0 ? (row[iFp] ?? '').trim() : '',
+      value: iVal >= 0 ? (row[iVal] ?? '').trim() : '',
+      partNumber: iPn >= 0 ? (row[iPn] ?? '').trim() : '',
+      dnp,
+      line: rowLine,
+    });
+  }
+  if (placements.length === 0) {
+    throw err('the file is empty: a header row but no data rows', { line: headerLine, code: 'empty' });
+  }
+
+  // ---- units ----------------------------------------------------------------------------------
+  const hx = infos[iX].unit;
+  const hy = infos[iY].unit;
+  if (hx && hy && hx !== hy) {
+    throw err(`the X column is in ${hx} but the Y column in ${hy}`, { line: headerLine, column: infos[iY].raw, code: 'unit-conflict' });
+  }
+  const headerUnit = hx ?? hy;
+  let units: Units;
+  let unitsSource: CentroidDialect['unitsSource'];
+  if (opts.units) {
+    units = opts.units;
+    unitsSource = opts.unitsSource ?? 'option';
+    if (headerUnit && headerUnit !== opts.units) {
+      warnings.push({
+        line: headerLine,
+        message: `units ${opts.units} given ${unitsSource === 'job' ? 'in the job' : 'by --units'} override the header's ${headerUnit}`,
+        code: 'units-override',
+      });
+    }
+  } else if (headerUnit) {
+    units = headerUnit;
+    unitsSource = 'header';
+    warnings.push({
+      line: headerLine,
+      message: `units ${units} taken from the header "${infos[hx ? iX : iY].raw}"`,
+      code: 'units-inferred',
+    });
+  } else if (firstSuffix) {
+    units = firstSuffix.unit;
+    unitsSource = 'values';
+    warnings.push({
+      line: firstSuffix.line,
+      message: `units ${units} taken from the unit suffix on the values`,
+      code: 'units-inferred',
+    });
+    if (anyPlain) {
+      throw err(`a coordinate without a unit while other values carry one; give --units mm|mil|in`, {
+        line: firstPlainLine,
+        column: infos[iX].raw,
+        code: 'no-units',
+      });
+    }
+  } else {
+    throw err('the units cannot be told: no unit in the header (e.g. "X(mm)") or on the values; give --units mm|mil|in', {
+      line: headerLine,
+      column: infos[iX].raw,
+      code: 'no-units',
+    });
+  }
+  const fileFactor = MM_PER_UNIT[units];
+  let mixed = false;
+  for (let i = 0; i < placements.length; i++) {
+    const ux = xu[i];
+    const uy = yu[i];
+    const p = placements[i];
+    p.x = xs[i] * (ux ? MM_PER_UNIT[CODE_UNIT[ux]!] : fileFactor);
+    p.y = ys[i] * (uy ? MM_PER_UNIT[CODE_UNIT[uy]!] : fileFactor);
+    if ((ux && CODE_UNIT[ux] !== units) || (uy && CODE_UNIT[uy] !== units)) mixed = true;
+  }
+  if (mixed) warnings.push({ line: null, message: `some values carry a unit other than ${units}; each was converted by its own unit`, code: 'units-mixed' });
+  if (iSide < 0) warnings.push({ line: null, message: 'no side column: every part is on the top side', code: 'no-side' });
+  if (iFp < 0) warnings.push({ line: null, message: 'no footprint column: no part can match a library package', code: 'no-footprint' });
+
+  const dialect: CentroidDialect = {
+    delimiter: delim,
+    decimalComma,
+    headerLine,
+    bom,
+    lineEnding,
+    unitsSource,
+    dnpSense: iDnp < 0 ? null : dnpInverted ? 'fitted' : 'dnp',
+  };
+  return { placements, columns, units, dialect, headers: infos.map((h) => h.raw), warnings };
+
+  function badNumber(cell: string, l: number, column: string): EngineInputError {
+    return err(`expected a number, got "${cell.trim()}"`, { line: l, column, code: 'bad-number' });
+  }
+}
+
+function fieldLabel(f: Field): string {
+  return f === 'ref' ? 'reference' : f === 'x' ? 'X' : f === 'y' ? 'Y' : f;
+}

@@ -1,0 +1,285 @@
+// One engine run: import → panel → fiducials → library → output-frame placements (one side).
+import { importCentroid } from '../centroid/import';
+import { applyAffine, composeAffine, mapRect, type Affine } from '../geometry';
+import { fitTransform, transformToAffine } from '../fiducials';
+import { Assigner, DEFAULT_COURTYARD } from '../library';
+import { boardInstances, designToSidePanel, sideAffine, sideRotationTerm } from '../panel';
+import type { Job } from '../schemas/job.schema';
+import type { LibraryFile } from '../schemas/library-file.schema';
+import { EngineInputError } from './errors';
+import { allocatePlacementColumns } from './records';
+import type {
+  BoardInstanceResult,
+  BoardTransform,
+  EngineWarning,
+  FiducialUsed,
+  ImportResult,
+  Quad,
+  RunResult,
+  Side,
+  TransformResult,
+  UnmatchedFootprint,
+  XY,
+} from './types';
+
+export interface RunJobInput {
+  /** the parsed job (jobSchema output) */
+  job: Job;
+  /** the centroid file's text (ignored when `imported` is given) */
+  centroidText?: string;
+  /** an import already done (e.g. after the user corrected the column mapping) */
+  imported?: ImportResult;
+  /** the parsed library file, or null */
+  library: LibraryFile | null;
+  side: Side;
+  /** names for error messages */
+  jobFile?: string;
+  centroidFile?: string;
+  /** units given on the command line: override the job's import.units */
+  unitsOverride?: ImportResult['units'];
+}
+
+const quad = (pts: XY[]): Quad => [pts[0], pts[1], pts[2], pts[3]];
+
+/** Run the engine for one side of the job's panel. Pure and synchronous. Throws EngineInputError. */
+export function runJob(input: RunJobInput): RunResult {
+  const { job, library, side, jobFile } = input;
+  const warnings: EngineWarning[] = [];
+
+  const imported =
+    input.imported ??
+    importCentroid(input.centroidText ?? '', {
+      file: input.centroidFile ?? job.centroid,
+      units: input.unitsOverride ?? job.import.units,
+      unitsSource: input.unitsOverride ? 'option' : job.import.units ? 'job' : undefined,
+      bottomRotation: job.import.bottomRotation,
+      map: job.import.map,
+    });
+  warnings.push(...imported.warnings);
+
+  const board = job.board;
+  const panel = job.panel;
+  const PW = panel.width;
+  const PH = panel.height;
+  const flipAxis = panel.flipAxis;
+  const instances = boardInstances(panel, jobFile);
+  const byNumber = new Map(instances.map((b) => [b.number, b]));
+  const S = sideAffine(side, flipAxis, PW, PH);
+  const boardMaps = new Map<number, Affine>();
+  for (const inst of instances) {
+    boardMaps.set(inst.number, designToSidePanel(inst, board, side, flipAxis, PW, PH));
+  }
+  // board-frame → side panel frame = designToSidePanel ∘ (board → design)
+  const boardToPanel = (n: number): Affine =>
+    composeAffine(boardMaps.get(n)!, { a: 1, b: 0, c: 0, d: 1, tx: board.originX, ty: board.originY });
+
+  // ---- fiducials of this side --------------------------------------------------------------
+  const names = new Set<string>();
+  type Fid = { name: string; frame: 'panel' | 'board'; board?: number; p: XY; measured: XY | null; clearRadius: number };
+  const fids: Fid[] = [];
+  job.fiducials.forEach((f, i) => {
+    if (f.side !== side) return;
+    if (names.has(f.name)) {
+      throw new EngineInputError(`duplicate fiducial name "${f.name}" on the ${side} side`, { file: jobFile, field: `fiducials[${i}].name`, code: 'duplicate-fiducial' });
+    }
+    names.add(f.name);
+    if (f.frame === 'panel') {
+      fids.push({ name: f.name, frame: 'panel', p: applyAffine(S, f.x, f.y), measured: f.measured ?? null, clearRadius: f.clearRadius });
+    } else {
+      for (const key of Object.keys(f.measured ?? {})) {
+        const inst = byNumber.get(Number(key));
+        if (!inst) throw new EngineInputError(`no board ${key} in the panel (${instances.length} boards)`, { file: jobFile, field: `fiducials[${i}].measured.${key}`, code: 'bad-board' });
+        if (inst.skipped) throw new EngineInputError(`board ${key} is skipped; it has no fiducials to measure`, { file: jobFile, field: `fiducials[${i}].measured.${key}`, code: 'bad-board' });
+      }
+      for (const inst of instances) {
+        if (inst.skipped) continue;
+        fids.push({
+          name: `${f.name}@${inst.number}`,
+          frame: 'board',
+          board: inst.number,
+          p: applyAffine(boardToPanel(inst.number), f.x, f.y),
+          measured: f.measured?.[String(inst.number)] ?? null,
+          clearRadius: f.clearRadius,
+        });
+      }
+    }
+  });
+
+  const limits = job.limits;
+  const panelMeasured = fids.filter((f) => f.frame === 'panel' && f.measured);
+  let transform: TransformResult | null = null;
+  if (panelMeasured.length > 0) {
+    transform = fitTransform(panelMeasured.map((f) => f.p), panelMeasured.map((f) => f.measured!), job.transform, {
+      names: panelMeasured.map((f) => f.name),
+      limits,
+      context: `${side} panel fiducials`,
+      file: jobFile,
+    });
+    warnings.push(...transform.warnings);
+  }
+  const boardTransforms: BoardTransform[] = [];
+  const localAffine = new Map<number, Affine>();
+  for (const inst of instances) {
+    if (inst.skipped) continue;
+    const local = fids.filter((f) => f.board === inst.number && f.measured);
+    if (local.length < 2) continue;
+    const t = fitTransform(local.map((f) => f.p), local.map((f) => f.measured!), job.transform, {
+      names: local.map((f) => f.name),
+      limits,
+      context: `board ${inst.number} local fiducials`,
+      file: jobFile,
+    });
+    warnings.push(...t.warnings);
+    boardTransforms.push({ board: inst.number, transform: t });
+    localAffine.set(inst.number, transformToAffine(t));
+  }
+  const placedBoards = instances.filter((b) => !b.skipped);
+  if (!transform && boardTransforms.length > 0 && boardTransforms.length < placedBoards.length) {
+    const missing = placedBoards.filter((b) => !localAffine.has(b.number)).map((b) => b.number);
+    throw new EngineInputError(
+      `boards ${missing.join(', ')} have no local transform and no panel fiducial is measured on the ${side} side; measure panel fiducials or two local fiducials on every board`,
+      { file: jobFile, field: 'fiducials', code: 'incomplete-alignment' },
+    );
+  }
+  const frame = transform || boardTransforms.length > 0 ? 'machine' : 'panel';
+  const panelT: Affine = transform ? transformToAffine(transform) : { a: 1, b: 0, c: 0, d: 1, tx: 0, ty: 0 };
+  const rotOf = (t: Affine) => (Math.atan2(t.c, t.a) * 180) / Math.PI;
+  const outputMapOf = (n: number): Affine => localAffine.get(n) ?? panelT;
+
+  // ---- assignments per source part ----------------------------------------------------------
+  const assigner = new Assigner(library, job.machine ? job.machine.nozzles : null);
+  if (!library) warnings.push({ line: null, message: 'no library: no part has a package', code: 'no-library' });
+  const src = imported.placements;
+  const parts: number[] = [];
+  for (let i = 0; i < src.length; i++) if (src[i].side === side && !src[i].dnp) parts.push(i);
+  const m = parts.length;
+  const sx = new Float64Array(m), sy = new Float64Array(m), srot = new Float64Array(m);
+  const offX = new Float64Array(m), offY = new Float64Array(m), hasOff = new Uint8Array(m);
+  const pl = new Float64Array(m).fill(NaN), pw = new Float64Array(m).fill(NaN), ph = new Float64Array(m).fill(NaN);
+  const court = new Float64Array(m), over = new Uint8Array(m), holder = new Float64Array(m).fill(NaN);
+  const pkgName: (string | null)[] = new Array(m), nozzle: (string | null)[] = new Array(m), vision: (string | null)[] = new Array(m);
+  const unmatched = new Map<string, UnmatchedFootprint>();
+  for (let j = 0; j < m; j++) {
+    const p = src[parts[j]];
+    sx[j] = p.x; sy[j] = p.y;
+    const a = assigner.assign(p.footprint);
+    srot[j] = p.rotation + (a.pkg ? a.pkg.rotationOffset : 0);
+    pkgName[j] = a.pkg ? a.pkg.name : null;
+    nozzle[j] = a.nozzle;
+    vision[j] = a.vision;
+    if (a.pkg) {
+      const b = a.pkg.body;
+      pl[j] = b.length; pw[j] = b.width; ph[j] = b.height;
+      offX[j] = b.offsetX; offY[j] = b.offsetY;
+      hasOff[j] = b.offsetX !== 0 || b.offsetY !== 0 ? 1 : 0;
+      court[j] = a.pkg.courtyard ?? DEFAULT_COURTYARD;
+      over[j] = a.pkg.overhang ? 1 : 0;
+      if (a.holderRadius !== null) holder[j] = a.holderRadius;
+    } else {
+      court[j] = DEFAULT_COURTYARD;
+      const u = unmatched.get(p.footprint) ?? { footprint: p.footprint, count: 0, placements: 0, refs: [] };
+      u.count++;
+      u.refs.push(p.ref);
+      unmatched.set(p.footprint, u);
+    }
+  }
+  for (const u of unmatched.values()) u.placements = u.count * placedBoards.length;
+
+  // ---- step-out: the hot loop ---------------------------------------------------------------
+  const total = m * placedBoards.length;
+  const out = allocatePlacementColumns(total);
+  const { x: ox, y: oy, originX, originY, rotation, seq, board: boardCol, sourceIndex } = out;
+  let k = 0;
+  for (const inst of placedBoards) {
+    const M = composeAffine(outputMapOf(inst.number), boardMaps.get(inst.number)!);
+    const { a, b, c, d, tx, ty } = M;
+    const rotTerm = sideRotationTerm(side, flipAxis, inst.rotation) + rotOf(outputMapOf(inst.number));
+    const num = inst.number;
+    for (let j = 0; j < m; j++, k++) {
+      const u = sx[j], v = sy[j];
+      const X = a * u + b * v + tx;
+      const Y = c * u + d * v + ty;
+      let r = (srot[j] + rotTerm) % 360;
+      if (r < 0) r += 360;
+      if (r >= 360 - 1e-9 || r < 1e-12) r = 0;
+      originX[k] = X;
+      originY[k] = Y;
+      rotation[k] = r;
+      if (hasOff[j] === 1) {
+        const rad = (r * Math.PI) / 180;
+        const cs = Math.cos(rad), sn = Math.sin(rad);
+        ox[k] = X + cs * offX[j] - sn * offY[j];
+        oy[k] = Y + sn * offX[j] + cs * offY[j];
+      } else {
+        ox[k] = X;
+        oy[k] = Y;
+      }
+      seq[k] = k + 1;
+      boardCol[k] = num;
+      sourceIndex[k] = parts[j];
+    }
+  }
+  // string and per-part columns, board by board (copies of references)
+  const refs = out.ref, sides = out.side, pn = out.partNumber, val = out.value, fp = out.footprint;
+  k = 0;
+  for (let bi = 0; bi < placedBoards.length; bi++) {
+    for (let j = 0; j < m; j++, k++) {
+      const p = src[parts[j]];
+      refs[k] = p.ref; sides[k] = side; pn[k] = p.partNumber; val[k] = p.value; fp[k] = p.footprint;
+      out.packageName[k] = pkgName[j]; out.nozzle[k] = nozzle[j]; out.vision[k] = vision[j];
+    }
+    out.bodyLength.set(pl, bi * m); out.bodyWidth.set(pw, bi * m); out.bodyHeight.set(ph, bi * m);
+    out.courtyard.set(court, bi * m); out.overhang.set(over, bi * m); out.holderRadius.set(holder, bi * m);
+  }
+
+  // ---- outlines and fiducials in the output frame ----------------------------------------------
+  const boards: BoardInstanceResult[] = instances.map((inst) => {
+    const M = composeAffine(outputMapOf(inst.number), boardToPanel(inst.number));
+    return {
+      number: inst.number,
+      anchor: { x: inst.anchorX, y: inst.anchorY },
+      rotation: inst.rotation,
+      skipped: inst.skipped,
+      ...(inst.row !== undefined ? { row: inst.row, col: inst.col } : {}),
+      outline: quad(mapRect(M, board.width, board.height)),
+      localTransform: localAffine.has(inst.number),
+    };
+  });
+  const fiducials: FiducialUsed[] = fids.map((f) => {
+    const T = f.board !== undefined ? outputMapOf(f.board) : panelT;
+    const q = applyAffine(T, f.p.x, f.p.y);
+    return {
+      name: f.name,
+      side,
+      frame: f.frame,
+      ...(f.board !== undefined ? { board: f.board } : {}),
+      x: q.x,
+      y: q.y,
+      panelX: f.p.x,
+      panelY: f.p.y,
+      measured: f.measured,
+      clearRadius: f.clearRadius,
+    };
+  });
+
+  return {
+    side,
+    frame,
+    program: job.program ?? null,
+    revision: job.revision ?? null,
+    placements: out,
+    boards,
+    boardsPlaced: placedBoards.length,
+    board: { width: board.width, height: board.height, originX: board.originX, originY: board.originY },
+    panel: { width: PW, height: PH, outline: quad(mapRect(composeAffine(panelT, S), PW, PH)), flipAxis },
+    fiducials,
+    transform,
+    boardTransforms,
+    unmatched: [...unmatched.values()],
+    machine: job.machine
+      ? { name: job.machine.name ?? null, reachX: job.machine.reachX, reachY: job.machine.reachY, nozzles: job.machine.nozzles }
+      : null,
+    import: imported,
+    warnings,
+  };
+}
