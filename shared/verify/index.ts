@@ -1,0 +1,8 @@
+// The findings engine: public surface. Pure (no node: imports): safe in a worker thread, the CLI
+// and the browser.
+export { verify, verifyBruteForce, validateInput, VerifyInputError, SHADOW_HEIGHT_STEP, DEFAULT_LIMIT } from './verify';
+export { findingKey, fmtMm } from './report';
+export { compareRefs, compareBoardRefs, boardRef } from './natural';
+export { TOUCH_EPS, TOUCH_EPS_AREA } from './geom';
+export { makeVerifyInput, rectQuad, type PartSpec, type LayoutSpec } from './build';
+export * from './types';

@@ -1,0 +1,69 @@
+// Natural order of reference designators (R2 before R10, C1 before C1A before C2) and of the
+// "BOARD:REF" strings of findings (board number first).
+
+/** Compare two references in natural order: runs of digits compare by value, other runs by
+ * their characters (case-insensitive first, then exact, so the order is total). */
+export function compareRefs(a: string, b: string): number {
+  let i = 0;
+  let j = 0;
+  const na = a.length;
+  const nb = b.length;
+  while (i < na && j < nb) {
+    const ca = a.charCodeAt(i);
+    const cb = b.charCodeAt(j);
+    const da = ca >= 48 && ca <= 57;
+    const db = cb >= 48 && cb <= 57;
+    if (da && db) {
+      let ie = i;
+      while (ie < na && isDigit(a.charCodeAt(ie))) ie++;
+      let je = j;
+      while (je < nb && isDigit(b.charCodeAt(je))) je++;
+      // compare numerically without overflow: strip leading zeros, then length, then digits
+      let is = i;
+      while (is < ie - 1 && a.charCodeAt(is) === 48) is++;
+      let js = j;
+      while (js < je - 1 && b.charCodeAt(js) === 48) js++;
+      const la = ie - is;
+      const lb = je - js;
+      if (la !== lb) return la - lb;
+      for (let k = 0; k < la; k++) {
+        const d = a.charCodeAt(is + k) - b.charCodeAt(js + k);
+        if (d !== 0) return d;
+      }
+      // equal values: fewer leading zeros first
+      if (ie - i !== je - j) return ie - i - (je - j);
+      i = ie;
+      j = je;
+    } else if (da !== db) {
+      // a digit run sorts before letters (C1 before CA)
+      return da ? -1 : 1;
+    } else {
+      const la = lower(ca);
+      const lb = lower(cb);
+      if (la !== lb) return la - lb;
+      i++;
+      j++;
+    }
+  }
+  if (na - i !== nb - j) return na - i - (nb - j);
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+
+function isDigit(c: number): boolean {
+  return c >= 48 && c <= 57;
+}
+
+function lower(c: number): number {
+  return c >= 65 && c <= 90 ? c + 32 : c;
+}
+
+/** "BOARD:REF" of a placement. */
+export function boardRef(board: number, ref: string): string {
+  return `${board}:${ref}`;
+}
+
+/** Compare (board, ref) pairs: board number, then reference in natural order. */
+export function compareBoardRefs(boardA: number, refA: string, boardB: number, refB: string): number {
+  if (boardA !== boardB) return boardA - boardB;
+  return compareRefs(refA, refB);
+}

@@ -1,0 +1,605 @@
+// The findings engine (DOMAIN.md section 11, CLI.md "Check"). Pure: no node: imports, no I/O, so
+// it runs in a worker thread on the server, in the CLI and in the browser.
+//
+// Method: per side, a static spatial index (flatbush) over every body's bounding box grown by its
+// own courtyard; one box query per part (its grown box, widened to its nozzle holder radius) gives
+// the candidates for the pair kinds; an exact separating-axis test on turned rectangles (with the
+// penetration depth, then the common area) decides body and courtyard overlaps; the nozzle shadow
+// is a point-to-rectangle distance. Fiducial clear circles are index queries too. The hot loops
+// run on typed arrays with the fields pulled into locals; queries hand back indices.
+//
+// `verifyBruteForce` runs the same exact tests on every pair (for the bench and the tests).
+
+import Flatbush from 'flatbush';
+import {
+  TOUCH_EPS,
+  TOUCH_EPS_AREA,
+  cosSinDeg,
+  makeCcw,
+  pointRectDistance,
+  pointsOutsideQuad,
+  quadEdges,
+  rectIntersectionArea,
+  rectOutsideQuad,
+  convexIntersectionArea,
+  convexSatDepth,
+} from './geom';
+import {
+  FindingSink,
+  K_BODY,
+  K_BOARD_OVERLAP,
+  K_COURTYARD,
+  K_FIDUCIAL,
+  K_NO_NOZZLE,
+  K_NO_PACKAGE,
+  K_OFF_BOARD,
+  K_OFF_PANEL,
+  K_OVERHANG,
+  K_PANEL_REACH,
+  K_REACH,
+  K_SHADOW,
+} from './sink';
+import { buildReport } from './report';
+import {
+  SIDE_NAMES,
+  type SideName,
+  type VerifyInput,
+  type VerifyOptions,
+  type VerifyResult,
+} from './types';
+
+/** A neighbour must be taller than the part by more than this to shadow its nozzle (mm). The
+ * 1e-6 keeps 1.3 − 0.8 (= 0.5000000000000001 in binary) from counting. */
+export const SHADOW_HEIGHT_STEP = 0.5;
+const SHADOW_STEP = SHADOW_HEIGHT_STEP + TOUCH_EPS;
+export const DEFAULT_LIMIT = 10_000;
+
+/** Per-part derived arrays shared by the indexed and the brute-force runs. */
+export interface Prepared {
+  n: number;
+  cx: Float64Array;
+  cy: Float64Array;
+  /** unit direction of the body length */
+  c: Float64Array;
+  s: Float64Array;
+  /** half length, half width */
+  hx: Float64Array;
+  hy: Float64Array;
+  /** courtyard excess */
+  g: Float64Array;
+  h: Float64Array;
+  /** nozzle holder radius */
+  R: Float64Array;
+  /** half extents of the bounding box of the body grown by its courtyard */
+  gex: Float64Array;
+  gey: Float64Array;
+  /** placement indices per side (0 top, 1 bottom), ascending */
+  sideIds: [Int32Array, Int32Array];
+}
+
+/** Outlines prepared for containment tests. */
+export interface PreparedOutlines {
+  /** board outlines, counter-clockwise (8 numbers each) */
+  boardCorners: Float64Array;
+  /** inward edge normals of each board outline (16 numbers each, see quadEdges) */
+  boardEdges: Float64Array;
+  /** board outline indices by side and board number */
+  boardBySide: [Map<number, number>, Map<number, number>];
+  panelCorners: Float64Array;
+  panelEdges: Float64Array;
+  /** panel outline index by side (-1 when none) */
+  panelBySide: [number, number];
+}
+
+export class VerifyInputError extends Error {
+  override name = 'VerifyInputError';
+}
+
+const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
+/** Check a job's placements and outlines; findings sorted (errors first, then by kind, board and
+ * reference). */
+export function verify(input: VerifyInput, options: VerifyOptions = {}): VerifyResult {
+  return run(input, options, false);
+}
+
+/** The same check with every pair of same-side parts tested exactly (no index): O(n²). */
+export function verifyBruteForce(input: VerifyInput, options: VerifyOptions = {}): VerifyResult {
+  return run(input, options, true);
+}
+
+function run(input: VerifyInput, options: VerifyOptions, brute: boolean): VerifyResult {
+  const t0 = now();
+  validateInput(input);
+  const limit = options.limit ?? DEFAULT_LIMIT;
+  if (!Number.isInteger(limit) || limit < 0) {
+    throw new VerifyInputError(`limit must be a whole number ≥ 0, got ${limit}`);
+  }
+  const sides = sidesOf(options.sides ?? 'both');
+  const P = prepare(input);
+  const O = prepareOutlines(input);
+  const sink = new FindingSink(limit);
+
+  let placements = 0;
+  let panelDone = false;
+  for (const side of sides) {
+    const ids = P.sideIds[side];
+    placements += ids.length;
+    const tree = brute ? null : buildTree(P, ids);
+    if (tree) pairsIndexed(P, ids, tree, sink);
+    else pairsBrute(P, ids, sink);
+    fiducialChecks(input, P, ids, side, tree, sink);
+    singleChecks(input, P, O, ids, side, sink);
+    // the panel layout is the same on both sides: check it once, on the first side that has it
+    if (!panelDone && (O.panelBySide[side] >= 0 || hasBoards(input, side))) {
+      panelChecks(input, O, side, sink);
+      panelDone = true;
+    }
+  }
+  return buildReport(input, P, O, sink, limit, placements, t0, now);
+}
+
+function sidesOf(choice: string): number[] {
+  if (choice === 'top') return [0];
+  if (choice === 'bottom') return [1];
+  if (choice === 'both') return [0, 1];
+  throw new VerifyInputError(`sides must be top, bottom or both, got "${choice}"`);
+}
+
+function hasBoards(input: VerifyInput, side: number): boolean {
+  const name = SIDE_NAMES[side];
+  return input.boards.some((b) => b.side === name);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Input checks (precise misuse errors)
+
+const NUMERIC = ['cx', 'cy', 'angleDeg', 'length', 'width', 'height', 'courtyard', 'holderRadius'] as const;
+const NON_NEGATIVE = new Set(['length', 'width', 'height', 'courtyard', 'holderRadius']);
+const FLAGS = ['side', 'overhang', 'hasPackage', 'hasNozzle'] as const;
+
+export function validateInput(input: VerifyInput): void {
+  const n = input.count;
+  if (!Number.isInteger(n) || n < 0) throw new VerifyInputError(`count must be a whole number ≥ 0, got ${n}`);
+  const len = (name: string, v: { length: number } | undefined): void => {
+    if (!v) throw new VerifyInputError(`${name} is missing, expected ${n} values`);
+    if (v.length !== n) throw new VerifyInputError(`${name} has ${v.length} values, expected ${n} (count)`);
+  };
+  len('ref', input.ref);
+  len('board', input.board);
+  for (const f of FLAGS) len(f, input[f]);
+  for (const f of NUMERIC) {
+    const a = input[f];
+    len(f, a);
+    const nonNeg = NON_NEGATIVE.has(f);
+    for (let i = 0; i < n; i++) {
+      const v = a[i];
+      if (!Number.isFinite(v) || (nonNeg && v < 0)) {
+        throw new VerifyInputError(
+          `${f}[${i}] (${input.ref[i]}) is ${v}, expected a finite number${nonNeg ? ' ≥ 0' : ''}`,
+        );
+      }
+    }
+  }
+  const side = input.side;
+  for (let i = 0; i < n; i++) {
+    if (side[i] > 1) throw new VerifyInputError(`side[${i}] (${input.ref[i]}) is ${side[i]}, expected 0 (top) or 1 (bottom)`);
+  }
+  const quad = (what: string, c: ArrayLike<number>): void => {
+    if (!c || c.length !== 8) throw new VerifyInputError(`${what} has ${c ? c.length : 0} corner numbers, expected 8`);
+    for (let k = 0; k < 8; k++) if (!Number.isFinite(c[k])) throw new VerifyInputError(`${what} corner value ${k} is ${c[k]}`);
+  };
+  input.boards.forEach((b, k) => quad(`boards[${k}] (board ${b.board}, ${b.side})`, b.corners));
+  input.panels.forEach((p, k) => quad(`panels[${k}] (${p.side})`, p.corners));
+  input.fiducials.forEach((f, k) => {
+    if (![f.x, f.y, f.clearRadius].every(Number.isFinite) || f.clearRadius < 0) {
+      throw new VerifyInputError(`fiducials[${k}] (${f.name}) needs finite x, y and clearRadius ≥ 0`);
+    }
+  });
+  if (input.reach && !(input.reach.x >= 0 && input.reach.y >= 0)) {
+    throw new VerifyInputError(`reach must have x ≥ 0 and y ≥ 0, got ${input.reach.x} × ${input.reach.y}`);
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Preparation
+
+export function prepare(input: VerifyInput): Prepared {
+  const n = input.count;
+  const c = new Float64Array(n);
+  const s = new Float64Array(n);
+  const hx = new Float64Array(n);
+  const hy = new Float64Array(n);
+  const gex = new Float64Array(n);
+  const gey = new Float64Array(n);
+  const cs = new Float64Array(2);
+  const { angleDeg, length, width, courtyard, side } = input;
+  let top = 0;
+  for (let i = 0; i < n; i++) {
+    cosSinDeg(angleDeg[i], cs, 0);
+    const ci = cs[0];
+    const si = cs[1];
+    c[i] = ci;
+    s[i] = si;
+    const x = length[i] / 2;
+    const y = width[i] / 2;
+    hx[i] = x;
+    hy[i] = y;
+    const ac = Math.abs(ci);
+    const as = Math.abs(si);
+    const g = courtyard[i] * (ac + as);
+    gex[i] = ac * x + as * y + g;
+    gey[i] = as * x + ac * y + g;
+    if (side[i] === 0) top++;
+  }
+  const topIds = new Int32Array(top);
+  const bottomIds = new Int32Array(n - top);
+  for (let i = 0, t = 0, b = 0; i < n; i++) {
+    if (side[i] === 0) topIds[t++] = i;
+    else bottomIds[b++] = i;
+  }
+  return {
+    n,
+    cx: input.cx,
+    cy: input.cy,
+    c,
+    s,
+    hx,
+    hy,
+    g: input.courtyard,
+    h: input.height,
+    R: input.holderRadius,
+    gex,
+    gey,
+    sideIds: [topIds, bottomIds],
+  };
+}
+
+export function prepareOutlines(input: VerifyInput): PreparedOutlines {
+  const nb = input.boards.length;
+  const boardCorners = new Float64Array(8 * nb);
+  const boardEdges = new Float64Array(16 * nb);
+  const boardBySide: [Map<number, number>, Map<number, number>] = [new Map(), new Map()];
+  input.boards.forEach((b, k) => {
+    const q = boardCorners.subarray(8 * k, 8 * k + 8);
+    q.set(b.corners);
+    makeCcw(q, 4);
+    quadEdges(q, boardEdges, 16 * k);
+    const m = boardBySide[b.side === 'bottom' ? 1 : 0];
+    if (!m.has(b.board)) m.set(b.board, k);
+  });
+  const np = input.panels.length;
+  const panelCorners = new Float64Array(8 * np);
+  const panelEdges = new Float64Array(16 * np);
+  const panelBySide: [number, number] = [-1, -1];
+  input.panels.forEach((p, k) => {
+    const q = panelCorners.subarray(8 * k, 8 * k + 8);
+    q.set(p.corners);
+    makeCcw(q, 4);
+    quadEdges(q, panelEdges, 16 * k);
+    const sd = p.side === 'bottom' ? 1 : 0;
+    if (panelBySide[sd] < 0) panelBySide[sd] = k;
+  });
+  return { boardCorners, boardEdges, boardBySide, panelCorners, panelEdges, panelBySide };
+}
+
+/** The static index of one side: item k is placement ids[k], its box the body grown by its own
+ * courtyard. Null when the side has no parts. */
+export function buildTree(P: Prepared, ids: Int32Array, nodeSize = NODE_SIZE): Flatbush | null {
+  const m = ids.length;
+  if (m === 0) return null;
+  const { cx, cy, gex, gey } = P;
+  const tree = new Flatbush(m, nodeSize);
+  for (let k = 0; k < m; k++) {
+    const i = ids[k];
+    const x = cx[i];
+    const y = cy[i];
+    const ex = gex[i];
+    const ey = gey[i];
+    tree.add(x - ex, y - ey, x + ex, y + ey);
+  }
+  tree.finish();
+  return tree;
+}
+
+export const NODE_SIZE = 16;
+
+/** The query box of part i: its grown box, widened to its nozzle holder radius around the centre
+ * (where a taller neighbour's body would shadow it). Written into out[0..3]. */
+export function queryBox(P: Prepared, i: number, out: Float64Array): void {
+  const x = P.cx[i];
+  const y = P.cy[i];
+  const r = P.R[i];
+  const ex = P.gex[i] > r ? P.gex[i] : r;
+  const ey = P.gey[i] > r ? P.gey[i] : r;
+  out[0] = x - ex;
+  out[1] = y - ey;
+  out[2] = x + ex;
+  out[3] = y + ey;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Pair kinds: body overlap, courtyard overlap, nozzle shadow
+
+/** The exact tests of one pair, shared by the indexed and the brute-force runs. */
+function makePairTests(P: Prepared, sink: FindingSink) {
+  const { cx, cy, c, s, hx, hy, g, h, R } = P;
+
+  /** Bodies and courtyards of i and j (i ≠ j, same side). */
+  const overlapPair = (i: number, j: number): void => {
+    const ax = cx[i];
+    const ay = cy[i];
+    const dx = cx[j] - ax;
+    const dy = cy[j] - ay;
+    const ac = c[i];
+    const as = s[i];
+    const bc = c[j];
+    const bs = s[j];
+    const gi = g[i];
+    const gj = g[j];
+    const ahx = hx[i];
+    const ahy = hy[i];
+    const bhx = hx[j];
+    const bhy = hy[j];
+    const C = Math.abs(ac * bc + as * bs);
+    const S = Math.abs(as * bc - ac * bs);
+    // courtyards (bodies grown by their courtyard excess): the four separating axes, early exit
+    const pA = Math.abs(dx * ac + dy * as);
+    let d = ahx + gi + (bhx + gj) * C + (bhy + gj) * S - pA;
+    if (d <= TOUCH_EPS) return;
+    const pB = Math.abs(dy * ac - dx * as);
+    let o = ahy + gi + (bhx + gj) * S + (bhy + gj) * C - pB;
+    if (o <= TOUCH_EPS) return;
+    if (o < d) d = o;
+    const pC = Math.abs(dx * bc + dy * bs);
+    o = (ahx + gi) * C + (ahy + gi) * S + bhx + gj - pC;
+    if (o <= TOUCH_EPS) return;
+    if (o < d) d = o;
+    const pD = Math.abs(dy * bc - dx * bs);
+    o = (ahx + gi) * S + (ahy + gi) * C + bhy + gj - pD;
+    if (o <= TOUCH_EPS) return;
+    if (o < d) d = o;
+    if (rectIntersectionArea(ax, ay, ac, as, ahx + gi, ahy + gi, cx[j], cy[j], bc, bs, bhx + gj, bhy + gj) <= TOUCH_EPS_AREA) {
+      return;
+    }
+    // the bodies themselves
+    let bd = ahx + bhx * C + bhy * S - pA;
+    o = ahy + bhx * S + bhy * C - pB;
+    if (o < bd) bd = o;
+    o = ahx * C + ahy * S + bhx - pC;
+    if (o < bd) bd = o;
+    o = ahx * S + ahy * C + bhy - pD;
+    if (o < bd) bd = o;
+    if (bd > TOUCH_EPS && rectIntersectionArea(ax, ay, ac, as, ahx, ahy, cx[j], cy[j], bc, bs, bhx, bhy) > TOUCH_EPS_AREA) {
+      sink.add(K_BODY, i, j, 0, bd, 0);
+    } else {
+      sink.add(K_COURTYARD, i, j, 0, d, NaN);
+    }
+  };
+
+  /** Does the taller neighbour j (h[j] − h[i] > 0.5 already known) lie, by its body, within the
+   * nozzle holder radius of i's centre? */
+  const shadowPair = (i: number, j: number): void => {
+    const r = R[i] - TOUCH_EPS;
+    if (r <= 0) return;
+    const dx = cx[i] - cx[j];
+    const dy = cy[i] - cy[j];
+    const cj = c[j];
+    const sj = s[j];
+    let lx = Math.abs(dx * cj + dy * sj) - hx[j];
+    if (lx >= r) return;
+    let ly = Math.abs(dy * cj - dx * sj) - hy[j];
+    if (ly >= r) return;
+    if (lx < 0) lx = 0;
+    if (ly < 0) ly = 0;
+    const d2 = lx * lx + ly * ly;
+    if (d2 < r * r) {
+      const dist = Math.sqrt(d2);
+      sink.add(K_SHADOW, i, j, 0, R[i] - dist, dist);
+    }
+  };
+
+  return { overlapPair, shadowPair, h, R };
+}
+
+function pairsIndexed(P: Prepared, ids: Int32Array, tree: Flatbush | null, sink: FindingSink): void {
+  if (!tree) return;
+  const { overlapPair, shadowPair, h, R } = makePairTests(P, sink);
+  const { cx, cy, gex, gey } = P;
+  const m = ids.length;
+  // the current query's part, read by the visitor
+  let qk = 0;
+  let qi = 0;
+  let qh = 0;
+  let qR = 0;
+  let gx0 = 0;
+  let gy0 = 0;
+  let gx1 = 0;
+  let gy1 = 0;
+  // called by flatbush for every item whose box meets the query box; returns false so that
+  // flatbush collects nothing: the findings go straight to the sink
+  const visit = (kj: number, x0: number, y0: number, x1: number, y1: number): boolean => {
+    if (kj === qk) return false;
+    const j = ids[kj];
+    if (qR > 0 && h[j] - qh > SHADOW_STEP) shadowPair(qi, j);
+    // each unordered pair once (from its lower index), and only when the grown boxes meet
+    if (kj > qk && x0 <= gx1 && x1 >= gx0 && y0 <= gy1 && y1 >= gy0) overlapPair(qi, j);
+    return false;
+  };
+  for (let k = 0; k < m; k++) {
+    const i = ids[k];
+    qk = k;
+    qi = i;
+    qh = h[i];
+    const r = R[i];
+    qR = r;
+    const x = cx[i];
+    const y = cy[i];
+    const ex = gex[i];
+    const ey = gey[i];
+    gx0 = x - ex;
+    gy0 = y - ey;
+    gx1 = x + ex;
+    gy1 = y + ey;
+    const qx = ex > r ? ex : r;
+    const qy = ey > r ? ey : r;
+    tree.search(x - qx, y - qy, x + qx, y + qy, visit);
+  }
+}
+
+function pairsBrute(P: Prepared, ids: Int32Array, sink: FindingSink): void {
+  const { overlapPair, shadowPair, h, R } = makePairTests(P, sink);
+  const m = ids.length;
+  for (let a = 0; a < m; a++) {
+    const i = ids[a];
+    const hi = h[i];
+    const ri = R[i];
+    for (let b = a + 1; b < m; b++) {
+      const j = ids[b];
+      const hj = h[j];
+      if (ri > 0 && hj - hi > SHADOW_STEP) shadowPair(i, j);
+      else if (R[j] > 0 && hi - hj > SHADOW_STEP) shadowPair(j, i);
+      overlapPair(i, j);
+    }
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Fiducial clear circles
+
+function fiducialChecks(
+  input: VerifyInput, P: Prepared, ids: Int32Array, side: number, tree: Flatbush | null, sink: FindingSink,
+): void {
+  const name = SIDE_NAMES[side];
+  const fids = input.fiducials;
+  if (fids.length === 0 || ids.length === 0) return;
+  const { cx, cy, c, s, hx, hy } = P;
+  // one finding per placement: the deepest circle it enters
+  const slotOf = new Map<number, number>();
+  let fk = 0;
+  let fx = 0;
+  let fy = 0;
+  let fr = 0;
+  const test = (i: number): void => {
+    const dist = pointRectDistance(fx, fy, cx[i], cy[i], c[i], s[i], hx[i], hy[i]);
+    const depth = fr - dist;
+    if (depth <= TOUCH_EPS) return;
+    const slot = slotOf.get(i);
+    if (slot === undefined) {
+      slotOf.set(i, sink.add(K_FIDUCIAL, i, 0, fk, depth, dist));
+    } else if (slot >= 0 && depth > sink.depth[slot]) {
+      sink.aux[slot] = fk;
+      sink.depth[slot] = depth;
+      sink.dist[slot] = dist;
+    }
+  };
+  const visit = (k: number): boolean => {
+    test(ids[k]);
+    return false;
+  };
+  for (fk = 0; fk < fids.length; fk++) {
+    const f = fids[fk];
+    if (f.side !== name || f.clearRadius <= 0) continue;
+    fx = f.x;
+    fy = f.y;
+    fr = f.clearRadius;
+    if (tree) tree.search(fx - fr, fy - fr, fx + fr, fy + fr, visit);
+    else for (let k = 0; k < ids.length; k++) test(ids[k]);
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Single-part kinds: off-board, out-of-reach, no-package, no-nozzle
+
+function singleChecks(
+  input: VerifyInput, P: Prepared, O: PreparedOutlines, ids: Int32Array, side: number, sink: FindingSink,
+): void {
+  const { cx, cy, c, s, hx, hy } = P;
+  const { hasPackage, hasNozzle, overhang, board } = input;
+  const boardOf = O.boardBySide[side];
+  const edges = O.boardEdges;
+  const reach = input.reach;
+  const rx = reach ? reach.x : 0;
+  const ry = reach ? reach.y : 0;
+  let lastBoard = -1;
+  let lastIdx = -1;
+  for (let k = 0; k < ids.length; k++) {
+    const i = ids[k];
+    if (hasPackage[i] === 0) sink.add(K_NO_PACKAGE, i, 0, 0, NaN, NaN);
+    else if (hasNozzle[i] === 0) sink.add(K_NO_NOZZLE, i, 0, 0, NaN, NaN);
+    const x = cx[i];
+    const y = cy[i];
+    if (reach) {
+      let out = -x;
+      if (x - rx > out) out = x - rx;
+      if (-y > out) out = -y;
+      if (y - ry > out) out = y - ry;
+      if (out > TOUCH_EPS) sink.add(K_REACH, i, 0, 0, out, NaN);
+    }
+    const b = board[i];
+    if (b !== lastBoard) {
+      lastBoard = b;
+      const idx = boardOf.get(b);
+      lastIdx = idx === undefined ? -1 : idx;
+    }
+    if (lastIdx >= 0) {
+      const out = rectOutsideQuad(edges, 16 * lastIdx, x, y, c[i], s[i], hx[i], hy[i]);
+      if (out > TOUCH_EPS) sink.add(overhang[i] ? K_OVERHANG : K_OFF_BOARD, i, lastIdx, 0, out, NaN);
+    }
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Panel layout: board overlap, off-panel, panel out of reach
+
+function panelChecks(input: VerifyInput, O: PreparedOutlines, side: number, sink: FindingSink): void {
+  const name: SideName = SIDE_NAMES[side];
+  const idx: number[] = [];
+  input.boards.forEach((b, k) => {
+    if (b.side === name) idx.push(k);
+  });
+  const bc = O.boardCorners;
+  // bounding boxes first, then the exact convex test
+  const box = new Float64Array(4 * idx.length);
+  idx.forEach((k, t) => {
+    let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+    for (let p = 0; p < 4; p++) {
+      const x = bc[8 * k + 2 * p];
+      const y = bc[8 * k + 2 * p + 1];
+      if (x < x0) x0 = x;
+      if (x > x1) x1 = x;
+      if (y < y0) y0 = y;
+      if (y > y1) y1 = y;
+    }
+    box.set([x0, y0, x1, y1], 4 * t);
+  });
+  for (let a = 0; a < idx.length; a++) {
+    const qa = bc.subarray(8 * idx[a], 8 * idx[a] + 8);
+    for (let b = a + 1; b < idx.length; b++) {
+      if (box[4 * b] >= box[4 * a + 2] || box[4 * b + 2] <= box[4 * a] ||
+          box[4 * b + 1] >= box[4 * a + 3] || box[4 * b + 3] <= box[4 * a + 1]) continue;
+      const qb = bc.subarray(8 * idx[b], 8 * idx[b] + 8);
+      const depth = convexSatDepth(qa, 4, qb, 4);
+      if (depth > TOUCH_EPS && convexIntersectionArea(qa, 4, qb, 4) > TOUCH_EPS_AREA) {
+        sink.add(K_BOARD_OVERLAP, idx[a], idx[b], side, depth, NaN);
+      }
+    }
+  }
+  const p = O.panelBySide[side];
+  if (p >= 0) {
+    for (const k of idx) {
+      const out = pointsOutsideQuad(O.panelEdges, 16 * p, bc.subarray(8 * k, 8 * k + 8), 4);
+      if (out > TOUCH_EPS) sink.add(K_OFF_PANEL, k, p, side, out, NaN);
+    }
+    if (input.reach) {
+      const { x: rx, y: ry } = input.reach;
+      let out = -Infinity;
+      for (let q = 0; q < 4; q++) {
+        const x = O.panelCorners[8 * p + 2 * q];
+        const y = O.panelCorners[8 * p + 2 * q + 1];
+        out = Math.max(out, -x, x - rx, -y, y - ry);
+      }
+      if (out > TOUCH_EPS) sink.add(K_PANEL_REACH, p, 0, side, out, NaN);
+    }
+  }
+}
