@@ -66,11 +66,7 @@ export function findingKey(kind: FindingKind, refs: string[], boards: number[]):
   return `${kind}|panel`;
 }
 
-interface Draft {
-  finding: Finding;
-  /** (board, ref) pairs in order, for sorting */
-  parts: [number, string][];
-}
+type Draft = Finding;
 
 export function buildReport(
   input: VerifyInput,
@@ -82,33 +78,39 @@ export function buildReport(
   t0: number,
   now: () => number,
 ): VerifyResult {
-  const drafts: Draft[] = [];
-  const seen = new Set<string>();
-  for (let k = 0; k < sink.size; k++) {
-    const d = draft(input, P, O, sink, k);
-    if (seen.has(d.finding.key)) continue;
-    seen.add(d.finding.key);
-    drafts.push(d);
-  }
-  drafts.sort(compareDrafts);
+  const n = sink.size;
+  // sort the compact records first (numeric keys), then build objects for the first `limit` only
+  const keys = sortKeys(input, sink);
+  const order = new Array<number>(n);
+  for (let k = 0; k < n; k++) order[k] = k;
+  order.sort((x, y) => {
+    const bx = 5 * x;
+    const by = 5 * y;
+    for (let f = 0; f < 5; f++) {
+      const d = keys[bx + f] - keys[by + f];
+      if (d !== 0) return d;
+    }
+    return x - y;
+  });
+  const ctx: Ctx = { input, P, O, sink };
+  const kept = Math.min(n, limit);
+  const findings: Finding[] = new Array(kept);
+  for (let t = 0; t < kept; t++) findings[t] = draft(ctx, order[t]);
+
   const byKind = Object.fromEntries(FINDING_KINDS.map((k) => [k, 0])) as Record<FindingKind, number>;
   let errors = 0;
   let warnings = 0;
-  let truncated = false;
+  let truncated = n > limit;
   for (let r = 0; r < RAW_KINDS; r++) {
-    const n = sink.found[r];
-    if (n === 0) continue;
-    byKind[RAW[r].kind] += n;
-    if (RAW[r].severity === 'error') errors += n;
-    else warnings += n;
-    if (n > sink.kept[r]) truncated = true;
-  }
-  if (drafts.length > limit) {
-    truncated = true;
-    drafts.length = limit;
+    const c = sink.found[r];
+    if (c === 0) continue;
+    byKind[RAW[r].kind] += c;
+    if (RAW[r].severity === 'error') errors += c;
+    else warnings += c;
+    if (c > sink.kept[r]) truncated = true;
   }
   return {
-    findings: drafts.map((d) => d.finding),
+    findings,
     summary: {
       errors,
       warnings,
@@ -120,22 +122,151 @@ export function buildReport(
   };
 }
 
-function compareDrafts(a: Draft, b: Draft): number {
-  const fa = a.finding;
-  const fb = b.finding;
-  if (fa.severity !== fb.severity) return fa.severity === 'error' ? -1 : 1;
-  const ka = KIND_RANK.get(fa.kind)! - KIND_RANK.get(fb.kind)!;
-  if (ka !== 0) return ka;
-  const n = Math.min(a.parts.length, b.parts.length);
-  for (let i = 0; i < n; i++) {
-    const c = compareBoardRefs(a.parts[i][0], a.parts[i][1], b.parts[i][0], b.parts[i][1]);
-    if (c !== 0) return c;
+/** Five numbers per record: severity and kind rank, then (board, natural reference rank) of the
+ * first and second subject in "BOARD:REF" order (-1 where there is none). */
+function sortKeys(input: VerifyInput, sink: FindingSink): Float64Array {
+  const n = sink.size;
+  const { board, ref } = input;
+  // natural rank of the references that occur in findings
+  const names = new Set<string>();
+  for (let k = 0; k < n; k++) {
+    const raw = sink.kind[k];
+    if (isBoardKind(raw)) continue;
+    names.add(ref[sink.a[k]]);
+    if (isPairKind(raw)) names.add(ref[sink.b[k]]);
   }
-  if (a.parts.length !== b.parts.length) return a.parts.length - b.parts.length;
-  return fa.key < fb.key ? -1 : fa.key > fb.key ? 1 : 0;
+  const sorted = [...names].sort(compareRefs);
+  const rank = new Map<string, number>();
+  for (let r = 0; r < sorted.length; r++) rank.set(sorted[r], r);
+  const keys = new Float64Array(5 * n);
+  for (let k = 0; k < n; k++) {
+    const raw = sink.kind[k];
+    const o = 5 * k;
+    keys[o] = (RAW[raw].severity === 'error' ? 0 : 100) + KIND_RANK.get(RAW[raw].kind)!;
+    keys[o + 2] = -1;
+    keys[o + 3] = -1;
+    keys[o + 4] = -1;
+    if (raw === K_PANEL_REACH) {
+      keys[o + 1] = 0;
+    } else if (raw === K_BOARD_OVERLAP || raw === K_OFF_PANEL) {
+      const b1 = input.boards[sink.a[k]].board;
+      const b2 = raw === K_BOARD_OVERLAP ? input.boards[sink.b[k]].board : -1;
+      keys[o + 1] = b2 >= 0 && b2 < b1 ? b2 : b1;
+      keys[o + 3] = b2 >= 0 && b2 < b1 ? b1 : b2;
+    } else {
+      const i = sink.a[k];
+      let b1 = board[i];
+      let r1 = rank.get(ref[i])!;
+      if (isPairKind(raw)) {
+        const j = sink.b[k];
+        let b2 = board[j];
+        let r2 = rank.get(ref[j])!;
+        if (b2 < b1 || (b2 === b1 && r2 < r1)) {
+          const tb = b1;
+          b1 = b2;
+          b2 = tb;
+          const tr = r1;
+          r1 = r2;
+          r2 = tr;
+        }
+        keys[o + 3] = b2;
+        keys[o + 4] = r2;
+      }
+      keys[o + 1] = b1;
+      keys[o + 2] = r1;
+    }
+  }
+  return keys;
 }
 
-function draft(input: VerifyInput, P: Prepared, O: PreparedOutlines, sink: FindingSink, k: number): Draft {
+function isPairKind(raw: number): boolean {
+  return raw === K_BODY || raw === K_COURTYARD || raw === K_SHADOW;
+}
+
+function isBoardKind(raw: number): boolean {
+  return raw === K_BOARD_OVERLAP || raw === K_OFF_PANEL || raw === K_PANEL_REACH;
+}
+
+interface Ctx {
+  input: VerifyInput;
+  P: Prepared;
+  O: PreparedOutlines;
+  sink: FindingSink;
+}
+
+function partName(input: VerifyInput, i: number): string {
+  return `${input.ref[i]} on board ${input.board[i]}`;
+}
+
+function singleDraft(
+  input: VerifyInput, kind: FindingKind, severity: 'error' | 'warning', i: number, message: string,
+  geometry: FindingGeometry, depth: number | null, distance: number | null, fiducial?: string,
+): Draft {
+  const b = input.board[i];
+  const refs = [`${b}:${input.ref[i]}`];
+  const finding: Finding = {
+    key: findingKey(kind, refs, []),
+    kind,
+    severity,
+    side: SIDE_NAMES[input.side[i]],
+    board: b,
+    boards: [b],
+    refs,
+    message,
+    geometry,
+    depth,
+    distance,
+  };
+  if (fiducial !== undefined) finding.fiducial = fiducial;
+  return finding;
+}
+
+/** true when j sorts before i (board number, then natural reference) */
+function swapped(input: VerifyInput, i: number, j: number): boolean {
+  return compareBoardRefs(input.board[j], input.ref[j], input.board[i], input.ref[i]) < 0;
+}
+
+function pairDraft(
+  input: VerifyInput, kind: FindingKind, severity: 'error' | 'warning', i: number, j: number,
+  message: string, geometry: FindingGeometry, depth: number | null, distance: number | null,
+): Draft {
+  let first = i;
+  let second = j;
+  if (swapped(input, i, j)) {
+    first = j;
+    second = i;
+  }
+  const board = input.board;
+  const ref = input.ref;
+  const refs = [`${board[first]}:${ref[first]}`, `${board[second]}:${ref[second]}`];
+  const boards = board[first] === board[second] ? [board[first]] : board[first] < board[second] ? [board[first], board[second]] : [board[second], board[first]];
+  return {
+    key: findingKey(kind, refs, []),
+    kind,
+    severity,
+    side: SIDE_NAMES[input.side[i]],
+    board: board[first],
+    boards,
+    refs,
+    message,
+    geometry,
+    depth,
+    distance,
+  };
+}
+
+function bodyGeometry(P: Prepared, i: number): FindingGeometry {
+  if (P.hx[i] === 0 && P.hy[i] === 0) return { type: 'point', x: P.cx[i], y: P.cy[i] };
+  const q = new Float64Array(8);
+  rectCorners(P.cx[i], P.cy[i], P.c[i], P.s[i], P.hx[i], P.hy[i], q);
+  return polygonOf(q, 4);
+}
+
+const quadA = new Float64Array(8);
+const quadB = new Float64Array(8);
+
+function draft(ctx: Ctx, k: number): Draft {
+  const { input, P, O, sink } = ctx;
   const raw = sink.kind[k];
   const { kind, severity } = RAW[raw];
   const a = sink.a[k];
@@ -143,121 +274,53 @@ function draft(input: VerifyInput, P: Prepared, O: PreparedOutlines, sink: Findi
   const depth = sink.depth[k];
   const dist = sink.dist[k];
   const { cx, cy, c, s, hx, hy, g } = P;
-  const ref = input.ref;
-  const board = input.board;
-  const name = (i: number): string => `${ref[i]} on board ${board[i]}`;
-  const pos = (i: number): string => `(${cx[i].toFixed(2)}, ${cy[i].toFixed(2)})`;
-  const sideOfPart = (i: number) => SIDE_NAMES[input.side[i]];
-
-  const single = (i: number, message: string, geometry: FindingGeometry, dp: number | null, ds: number | null, extra: Partial<Finding> = {}): Draft => {
-    const refs = [`${board[i]}:${ref[i]}`];
-    return {
-      finding: {
-        key: findingKey(kind, refs, []),
-        kind,
-        severity,
-        side: sideOfPart(i),
-        board: board[i],
-        boards: [board[i]],
-        refs,
-        message,
-        geometry,
-        depth: dp,
-        distance: ds,
-        ...extra,
-      },
-      parts: [[board[i], ref[i]]],
-    };
-  };
-
-  const pair = (i: number, j: number, message: (first: number, second: number) => string, geometry: FindingGeometry, dp: number | null, ds: number | null, ordered = false): Draft => {
-    // sorted by board then natural reference; `ordered` keeps the message's (part, neighbour) roles
-    let first = i;
-    let second = j;
-    if (compareBoardRefs(board[j], ref[j], board[i], ref[i]) < 0) {
-      first = j;
-      second = i;
-    }
-    const refs = [`${board[first]}:${ref[first]}`, `${board[second]}:${ref[second]}`];
-    const boards = board[first] === board[second] ? [board[first]] : [board[first], board[second]].sort((x, y) => x - y);
-    return {
-      finding: {
-        key: findingKey(kind, refs, []),
-        kind,
-        severity,
-        side: sideOfPart(i),
-        board: board[first],
-        boards,
-        refs,
-        message: ordered ? message(i, j) : message(first, second),
-        geometry,
-        depth: dp,
-        distance: ds,
-      },
-      parts: [[board[first], ref[first]], [board[second], ref[second]]],
-    };
-  };
-
-  const bodyPolygon = (i: number): FindingGeometry => {
-    if (hx[i] === 0 && hy[i] === 0) return { type: 'point', x: cx[i], y: cy[i] };
-    const q = new Float64Array(8);
-    rectCorners(cx[i], cy[i], c[i], s[i], hx[i], hy[i], q);
-    return polygonOf(q, 4);
-  };
 
   switch (raw) {
     case K_BODY: {
       const pts = rectIntersectionPolygon(cx[a], cy[a], c[a], s[a], hx[a], hy[a], cx[b], cy[b], c[b], s[b], hx[b], hy[b]);
-      return pair(a, b, (p, q) => `${name(p)} overlaps ${name(q)} by ${fmtMm(depth)} mm`, polyOrPoint(pts, cx[a], cy[a]), depth, null);
+      const [p, q] = swapped(input, a, b) ? [b, a] : [a, b];
+      const message = `${partName(input, p)} overlaps ${partName(input, q)} by ${fmtMm(depth)} mm`;
+      return pairDraft(input, kind, severity, a, b, message, polyOrPoint(pts, cx[a], cy[a]), depth, null);
     }
     case K_COURTYARD: {
       const pts = rectIntersectionPolygon(
         cx[a], cy[a], c[a], s[a], hx[a] + g[a], hy[a] + g[a],
         cx[b], cy[b], c[b], s[b], hx[b] + g[b], hy[b] + g[b],
       );
-      const qa = new Float64Array(8);
-      const qb = new Float64Array(8);
-      rectCorners(cx[a], cy[a], c[a], s[a], hx[a], hy[a], qa);
-      rectCorners(cx[b], cy[b], c[b], s[b], hx[b], hy[b], qb);
-      const gap = convexGap(qa, 4, qb, 4);
+      rectCorners(cx[a], cy[a], c[a], s[a], hx[a], hy[a], quadA);
+      rectCorners(cx[b], cy[b], c[b], s[b], hx[b], hy[b], quadB);
+      const gap = convexGap(quadA, 4, quadB, 4);
       const gapText = gap <= 1e-6 ? 'the bodies touch' : `bodies ${fmtMm(gap)} mm apart`;
-      return pair(
-        a, b,
-        (p, q) => `Courtyards of ${name(p)} and ${name(q)} overlap by ${fmtMm(depth)} mm (${gapText})`,
-        polyOrPoint(pts, cx[a], cy[a]), depth, gap <= 1e-6 ? 0 : gap,
-      );
+      const [p, q] = swapped(input, a, b) ? [b, a] : [a, b];
+      const message = `Courtyards of ${partName(input, p)} and ${partName(input, q)} overlap by ${fmtMm(depth)} mm (${gapText})`;
+      return pairDraft(input, kind, severity, a, b, message, polyOrPoint(pts, cx[a], cy[a]), depth, gap <= 1e-6 ? 0 : gap);
     }
     case K_OFF_BOARD:
     case K_OVERHANG: {
       const tail = raw === K_OVERHANG ? ' (its package is marked overhang)' : '';
-      return single(a, `${name(a)} reaches ${fmtMm(depth)} mm outside its board${tail}`, bodyPolygon(a), depth, null);
+      return singleDraft(input, kind, severity, a, `${partName(input, a)} reaches ${fmtMm(depth)} mm outside its board${tail}`, bodyGeometry(P, a), depth, null);
     }
     case K_FIDUCIAL: {
       const f = input.fiducials[sink.aux[k]];
       const near = nearestPointOnRect(f.x, f.y, cx[a], cy[a], c[a], s[a], hx[a], hy[a]);
-      return single(
-        a,
-        `${name(a)} enters the clear area of fiducial ${f.name}: its body is ${fmtMm(dist)} mm from the fiducial's centre, ${fmtMm(depth)} mm inside the ${fmtMm(f.clearRadius)} mm clear radius`,
+      return singleDraft(
+        input, kind, severity, a,
+        `${partName(input, a)} enters the clear area of fiducial ${f.name}: its body is ${fmtMm(dist)} mm from the fiducial's centre, ${fmtMm(depth)} mm inside the ${fmtMm(f.clearRadius)} mm clear radius`,
         { type: 'segment', from: [f.x, f.y], to: near },
-        depth, dist, { fiducial: f.name },
+        depth, dist, f.name,
       );
     }
     case K_SHADOW: {
-      // a = the part placed, b = the taller neighbour
+      // a = the part being placed, b = the taller neighbour
       const near = nearestPointOnRect(cx[a], cy[a], cx[b], cy[b], c[b], s[b], hx[b], hy[b]);
-      return pair(
-        a, b,
-        (p, q) =>
-          `${name(q)} (${fmtMm(P.h[q])} mm tall) is ${fmtMm(dist)} mm from the centre of ${name(p)} (${fmtMm(P.h[p])} mm tall), within its nozzle holder radius of ${fmtMm(P.R[p])} mm: place ${ref[p]} first`,
-        { type: 'segment', from: [cx[a], cy[a]], to: near },
-        depth, dist, true,
-      );
+      const message = `${partName(input, b)} (${fmtMm(P.h[b])} mm tall) is ${fmtMm(dist)} mm from the centre of ${partName(input, a)} (${fmtMm(P.h[a])} mm tall), within its nozzle holder radius of ${fmtMm(P.R[a])} mm: place ${input.ref[a]} first`;
+      return pairDraft(input, kind, severity, a, b, message, { type: 'segment', from: [cx[a], cy[a]], to: near }, depth, dist);
     }
     case K_REACH: {
       const r = input.reach!;
-      return single(
-        a,
-        `${name(a)} at ${pos(a)} is ${fmtMm(depth)} mm outside the machine reach (${fmtMm(r.x)} × ${fmtMm(r.y)} mm)`,
+      return singleDraft(
+        input, kind, severity, a,
+        `${partName(input, a)} at (${cx[a].toFixed(2)}, ${cy[a].toFixed(2)}) is ${fmtMm(depth)} mm outside the machine reach (${fmtMm(r.x)} × ${fmtMm(r.y)} mm)`,
         { type: 'point', x: cx[a], y: cy[a] },
         depth, null,
       );
@@ -265,12 +328,12 @@ function draft(input: VerifyInput, P: Prepared, O: PreparedOutlines, sink: Findi
     case K_NO_PACKAGE: {
       const fp = input.footprint?.[a];
       const what = fp ? `footprint "${fp}"` : 'its footprint';
-      return single(a, `${name(a)}: ${what} matches no package in the library`, { type: 'point', x: cx[a], y: cy[a] }, null, null);
+      return singleDraft(input, kind, severity, a, `${partName(input, a)}: ${what} matches no package in the library`, { type: 'point', x: cx[a], y: cy[a] }, null, null);
     }
     case K_NO_NOZZLE: {
       const pk = input.packageName?.[a];
       const what = pk ? `package ${pk}` : 'its package';
-      return single(a, `${name(a)}: none of the nozzles of ${what} is on the machine`, { type: 'point', x: cx[a], y: cy[a] }, null, null);
+      return singleDraft(input, kind, severity, a, `${partName(input, a)}: none of the nozzles of ${what} is on the machine`, { type: 'point', x: cx[a], y: cy[a] }, null, null);
     }
     case K_BOARD_OVERLAP: {
       const side = SIDE_NAMES[sink.aux[k]];
@@ -308,21 +371,17 @@ function boardDraft(
   message: string, geometry: FindingGeometry, depth: number,
 ): Draft {
   return {
-    finding: {
-      key: findingKey(kind, [], boards),
-      kind,
-      severity,
-      side,
-      board: boards.length ? boards[0] : null,
-      boards,
-      refs: [],
-      message,
-      geometry,
-      depth,
-      distance: null,
-    },
-    // panel findings sort by board number (as if board:"" refs)
-    parts: boards.map((n) => [n, ''] as [number, string]),
+    key: findingKey(kind, [], boards),
+    kind,
+    severity,
+    side,
+    board: boards.length ? boards[0] : null,
+    boards,
+    refs: [],
+    message,
+    geometry,
+    depth,
+    distance: null,
   };
 }
 

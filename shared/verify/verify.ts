@@ -95,6 +95,9 @@ export class VerifyInputError extends Error {
   override name = 'VerifyInputError';
 }
 
+/** Measurement hook for the bench: called at the end of each phase when set (null otherwise). */
+export const verifyProbe: { onPhase: ((phase: string) => void) | null } = { onPhase: null };
+
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
 /** Check a job's placements and outlines; findings sorted (errors first, then by kind, board and
@@ -119,6 +122,8 @@ function run(input: VerifyInput, options: VerifyOptions, brute: boolean): Verify
   const P = prepare(input);
   const O = prepareOutlines(input);
   const sink = new FindingSink(limit);
+  const probe = verifyProbe.onPhase;
+  if (probe) probe('prepare');
 
   let placements = 0;
   let panelDone = false;
@@ -126,8 +131,10 @@ function run(input: VerifyInput, options: VerifyOptions, brute: boolean): Verify
     const ids = P.sideIds[side];
     placements += ids.length;
     const tree = brute ? null : buildTree(P, ids);
+    if (probe) probe('index');
     if (tree) pairsIndexed(P, ids, tree, sink);
     else pairsBrute(P, ids, sink);
+    if (probe) probe('pairs');
     fiducialChecks(input, P, ids, side, tree, sink);
     singleChecks(input, P, O, ids, side, sink);
     // the panel layout is the same on both sides: check it once, on the first side that has it
@@ -136,7 +143,9 @@ function run(input: VerifyInput, options: VerifyOptions, brute: boolean): Verify
       panelDone = true;
     }
   }
-  return buildReport(input, P, O, sink, limit, placements, t0, now);
+  const result = buildReport(input, P, O, sink, limit, placements, t0, now);
+  if (probe) probe('report');
+  return result;
 }
 
 function sidesOf(choice: string): number[] {
