@@ -1,0 +1,83 @@
+// `cli check JOB.json [--side top|bottom|both] [--out FILE]` (CLI.md): run the job for the side(s)
+// and print the findings as JSON. Exit 1 when an error-severity finding remains.
+import { EngineInputError } from '../../shared/pipeline/errors';
+import { runJob } from '../../shared/pipeline/run-job';
+import type { RunResult, Side } from '../../shared/pipeline/types';
+import { verifyInputFromRuns } from '../../shared/verify/from-job';
+import { verify, VerifyInputError } from '../../shared/verify/verify';
+import { emit, EXIT_FINDINGS, EXIT_OK, loadJob, one, onePositional, parseArgs, warn, type Command } from './common';
+
+const spec = { side: { values: ['top', 'bottom', 'both'] }, out: {} } as const;
+
+/** The command line prints every finding up to this many (the summary counts all of them). */
+export const CLI_FINDINGS_LIMIT = 200_000;
+
+export const checkCommand: Command = {
+  name: 'check',
+  summary: 'verify the job (overlaps, board and panel outlines, fiducials, nozzle shadow, reach, packages)',
+  help: `Usage: cli check JOB.json [--side top|bottom|both] [--out FILE]
+
+Runs the job for the side(s) and checks every placed part (do-not-place parts are never checked):
+  error    body-overlap, off-board, board-overlap, off-panel, fiducial-clearance,
+           out-of-reach, no-package, no-nozzle
+  warning  courtyard-overlap, nozzle-shadow, off-board of a package marked overhang
+Prints { "findings": [ { key, kind, severity, side, board, boards, refs, message, geometry,
+depth, distance } ], "summary": { errors, warnings, placements, seconds } }. refs are
+"BOARD:REF", sorted by board number, then reference in natural order. Coordinates are in the
+side's output frame (machine frame when fiducials were measured, else the panel frame).
+
+Options:
+  --side S      top, bottom or both (default both)
+  --out FILE    write to FILE instead of stdout
+
+Exit: 0 no error finding; 1 at least one error-severity finding; 2 bad input or options.`,
+  async run(argv, io) {
+    const t0 = performance.now();
+    const args = parseArgs(argv, spec, 'check');
+    if (args.help) {
+      io.stdout(this.help + '\n');
+      return EXIT_OK;
+    }
+    const jobPath = onePositional(args, 'check', 'job file');
+    const choice = (one(args, 'side') ?? 'both') as Side | 'both';
+    const sides: Side[] = choice === 'both' ? ['top', 'bottom'] : [choice];
+    const loaded = await loadJob(jobPath);
+    const runs: RunResult[] = sides.map((side) =>
+      runJob({
+        job: loaded.job,
+        centroidText: loaded.centroidText,
+        library: loaded.library,
+        side,
+        jobFile: jobPath,
+        centroidFile: loaded.job.centroid,
+      }),
+    );
+    let result;
+    try {
+      result = verify(verifyInputFromRuns(runs), { sides: choice, limit: CLI_FINDINGS_LIMIT });
+    } catch (e) {
+      if (e instanceof VerifyInputError) throw new EngineInputError(e.message, { file: jobPath, code: 'bad-geometry' });
+      throw e;
+    }
+    // import warnings once (both runs share the import), then each side's own
+    const seen = new Set<string>();
+    for (const r of runs) {
+      warn(io, r.warnings.filter((w) => {
+        const k = `${w.line}|${w.message}`;
+        if (seen.has(k)) return false;
+        seen.add(k);
+        return true;
+      }), loaded.job.centroid);
+    }
+    if (result.summary.truncated) {
+      io.stderr(`warning: ${result.summary.errors + result.summary.warnings} findings; only the first ${result.findings.length} are listed\n`);
+    }
+    const { errors, warnings, placements } = result.summary;
+    const out = {
+      findings: result.findings,
+      summary: { errors, warnings, placements, seconds: Math.round(performance.now() - t0) / 1000 },
+    };
+    await emit(JSON.stringify(out, null, 2), one(args, 'out'), io);
+    return errors > 0 ? EXIT_FINDINGS : EXIT_OK;
+  },
+};
