@@ -8,7 +8,7 @@ const COMMANDS: Record<string, () => Promise<Command>> = {
   import: async () => (await import('./cli/import')).importCommand,
   panelize: async () => (await import('./cli/panelize')).panelizeCommand,
   align: async () => (await import('./cli/align')).alignCommand,
-  // check: async () => (await import('./cli/check')).checkCommand,
+  check: async () => (await import('./cli/check')).checkCommand,
 };
 
 async function usage(): Promise<string> {
