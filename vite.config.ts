@@ -19,7 +19,6 @@ export default defineConfig({
   test: {
     projects: [
       {
-        extends: false,
         test: {
           name: 'shared',
           environment: 'node',
@@ -36,7 +35,6 @@ export default defineConfig({
         },
       },
       {
-        extends: false,
         test: {
           name: 'server',
           environment: 'node',
@@ -45,6 +43,17 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 20000,
           hookTimeout: 60000,
+        },
+      },
+      {
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['tests/e2e/**/*.e2e.test.ts'],
+          globalSetup: ['tests/helpers/e2e-global-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 60000,
+          hookTimeout: 120000,
         },
       },
     ],

@@ -1,3 +1,5 @@
+export {};
+
 // `npm run bench`: runs every benchmark suite in this folder and prints, as its last line, one JSON
 // object with all figures. Each suite exports `run(): Promise<Record<string, unknown>>`.
 const suites = ['./engine.bench.ts', './verify.bench.ts'];

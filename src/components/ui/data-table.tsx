@@ -26,6 +26,8 @@ interface DataTableProps<T> {
 }
 
 const ROW_H = 34;
+/** Up to this many rows are all in the DOM; more are virtualised. */
+const VIRTUAL_ABOVE = 300;
 
 /**
  * Sortable, filterable table; only the visible rows are in the DOM, so thousands of rows scroll
@@ -44,13 +46,16 @@ export function DataTable<T>({ data, columns, label, getRowId, onRowClick, selec
     getSortedRowModel: getSortedRowModel(),
     getFilteredRowModel: getFilteredRowModel(),
     getRowId,
+    // First click sorts ascending for every column, numbers included.
+    sortDescFirst: false,
   });
   const rows = table.getRowModel().rows;
   const scrollRef = useRef<HTMLDivElement>(null);
-  const virtualizer = useVirtualizer({ count: rows.length, getScrollElement: () => scrollRef.current, estimateSize: () => ROW_H, overscan: 12 });
-  const items = virtualizer.getVirtualItems();
-  const padTop = items.length ? items[0].start : 0;
-  const padBottom = items.length ? virtualizer.getTotalSize() - items[items.length - 1].end : 0;
+  const virtual = rows.length > VIRTUAL_ABOVE;
+  const virtualizer = useVirtualizer({ count: virtual ? rows.length : 0, getScrollElement: () => scrollRef.current, estimateSize: () => ROW_H, overscan: 12 });
+  const items = virtual ? virtualizer.getVirtualItems() : rows.map((_, index) => ({ index, start: index * ROW_H, end: (index + 1) * ROW_H }));
+  const padTop = virtual && items.length ? items[0].start : 0;
+  const padBottom = virtual && items.length ? virtualizer.getTotalSize() - items[items.length - 1].end : 0;
   const colCount = table.getVisibleLeafColumns().length;
 
   return (

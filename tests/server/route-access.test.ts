@@ -1,0 +1,73 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Role } from '../../shared/schemas/auth.schema';
+import type { Access } from '../../server/lib/routes';
+import { signedInAgent, startTestApp, truncateAll, type TestContext } from '../helpers/test-app';
+
+/**
+ * Every API route, and who may call it. A route added to the server without a line here fails
+ * the first test; a line left here after its route is gone fails it too.
+ */
+const EXPECTED: Record<string, Access> = {
+  'GET /health': 'public',
+  'GET /auth/csrf': 'public',
+  'POST /auth/sign-in': 'public',
+  'POST /auth/sign-out': 'signed-in',
+  'GET /me': 'signed-in',
+  'GET /users': ['admin'],
+  'POST /users': ['admin'],
+  'GET /users/:id': ['admin'],
+  'PATCH /users/:id': ['admin'],
+  'POST /users/:id/password': ['admin'],
+  'POST /me/password': 'signed-in',
+  'GET /audit': ['admin'],
+  'GET /audit/mine': 'signed-in',
+  'GET /outbox': ['admin'],
+  'GET /outbox/:id': ['admin'],
+};
+
+const WHO: (Role | 'nobody')[] = ['nobody', 'admin', 'engineer', 'librarian', 'operator'];
+
+function allowed(access: Access, who: Role | 'nobody'): boolean {
+  if (access === 'public') return true;
+  if (who === 'nobody') return false;
+  if (access === 'signed-in' || who === 'admin') return true;
+  return access.includes(who);
+}
+
+let ctx: TestContext;
+beforeAll(async () => {
+  ctx = await startTestApp();
+  await truncateAll(ctx.ds);
+});
+afterAll(() => ctx.close());
+
+describe('route × role table', () => {
+  it('lists exactly the registered routes, with the same access', () => {
+    const registered = Object.fromEntries(ctx.app.locals.routes.map((r) => [`${r.method} ${r.path}`, r.access]));
+    expect(Object.keys(registered).sort()).toEqual(Object.keys(EXPECTED).sort());
+    for (const [key, access] of Object.entries(EXPECTED)) expect(registered[key], key).toEqual(access);
+  });
+
+  const cases = Object.entries(EXPECTED).flatMap(([key, access]) => WHO.map((who) => [key, who, access] as const));
+
+  it.each(cases)('%s as %s', async (key, who, access) => {
+    const [method, pattern] = key.split(' ');
+    const path = '/api' + pattern.replace(/:id\b/g, '00000000-0000-4000-8000-000000000000');
+    let res: request.Response;
+    if (who === 'nobody') {
+      const a = request.agent(ctx.app);
+      const token = (await a.get('/api/auth/csrf')).body.token as string;
+      res = await a[method.toLowerCase() as 'get'](path).set('X-CSRF-Token', token).send(method === 'GET' ? undefined : {});
+    } else {
+      const ag = await signedInAgent(ctx, [who]);
+      res = await ag.a[method.toLowerCase() as 'get'](path).set('X-CSRF-Token', ag.token).send(method === 'GET' ? undefined : {});
+    }
+    if (allowed(access, who)) {
+      expect([401, 403], `${key} as ${who}: ${res.status} ${JSON.stringify(res.body)}`).not.toContain(res.status);
+    } else {
+      expect(res.status, `${key} as ${who}`).toBe(who === 'nobody' ? 401 : 403);
+      expect(res.body.title).toBeTruthy();
+    }
+  });
+});
