@@ -355,7 +355,8 @@ function draft(ctx: Ctx, k: number): Draft {
       const pw = Math.hypot(q[2] - q[0], q[3] - q[1]);
       const ph = Math.hypot(q[6] - q[0], q[7] - q[1]);
       const reachText = `the machine reach (${fmtMm(r.x)} × ${fmtMm(r.y)} mm)`;
-      const larger = Math.max(pw, ph) > Math.max(r.x, r.y) + 1e-6 || Math.min(pw, ph) > Math.min(r.x, r.y) + 1e-6;
+      // the panel's own X edge (corner 0 → 1) against the reach in X, its Y edge against Y
+      const larger = pw > r.x + 1e-6 || ph > r.y + 1e-6;
       const message = larger
         ? `The panel (${fmtMm(pw)} × ${fmtMm(ph)} mm) is larger than ${reachText}`
         : `The panel reaches ${fmtMm(depth)} mm outside ${reachText}`;
