@@ -168,6 +168,8 @@ export function rectIntersectionArea(
   ax: number, ay: number, ac: number, as: number, ahx: number, ahy: number,
   bx: number, by: number, bc: number, bs: number, bhx: number, bhy: number,
 ): number {
+  // a rectangle without area (a part without a package is a point) shares no area with anything
+  if (ahx <= 0 || ahy <= 0 || bhx <= 0 || bhy <= 0) return 0;
   rectCorners(ax, ay, ac, as, ahx, ahy, rectA);
   rectCorners(bx, by, bc, bs, bhx, bhy, rectB);
   const n = clipConvex(rectA, 4, rectB, 4, clipOut, clipTmp);
