@@ -13,6 +13,8 @@ import {
   nearestPointOnRect,
   rectCorners,
   rectIntersectionPolygon,
+  rectSatDepth,
+  pointRectDistance,
 } from './geom';
 import { compareBoardRefs, compareRefs } from './natural';
 import {
@@ -262,6 +264,13 @@ function bodyGeometry(P: Prepared, i: number): FindingGeometry {
   return polygonOf(q, 4);
 }
 
+/** Gap between two bodies of which one is a point (or a segment-thin rectangle). */
+function pointGap(P: Prepared, p: number, q: number): number {
+  const { cx, cy, c, s, hx, hy } = P;
+  if (hx[p] * hy[p] === 0) return pointRectDistance(cx[p], cy[p], cx[q], cy[q], c[q], s[q], hx[q], hy[q]);
+  return pointRectDistance(cx[q], cy[q], cx[p], cy[p], c[p], s[p], hx[p], hy[p]);
+}
+
 const quadA = new Float64Array(8);
 const quadB = new Float64Array(8);
 
@@ -277,23 +286,31 @@ function draft(ctx: Ctx, k: number): Draft {
 
   switch (raw) {
     case K_BODY: {
-      const pts = rectIntersectionPolygon(cx[a], cy[a], c[a], s[a], hx[a], hy[a], cx[b], cy[b], c[b], s[b], hx[b], hy[b]);
+      // geometry and depth from the pair in report order, so they do not depend on input order
       const [p, q] = swapped(input, a, b) ? [b, a] : [a, b];
-      const message = `${partName(input, p)} overlaps ${partName(input, q)} by ${fmtMm(depth)} mm`;
-      return pairDraft(input, kind, severity, a, b, message, polyOrPoint(pts, cx[a], cy[a]), depth, null);
+      const pts = rectIntersectionPolygon(cx[p], cy[p], c[p], s[p], hx[p], hy[p], cx[q], cy[q], c[q], s[q], hx[q], hy[q]);
+      const d = rectSatDepth(cx[p], cy[p], c[p], s[p], hx[p], hy[p], cx[q], cy[q], c[q], s[q], hx[q], hy[q]);
+      const message = `${partName(input, p)} overlaps ${partName(input, q)} by ${fmtMm(d)} mm`;
+      return pairDraft(input, kind, severity, a, b, message, polyOrPoint(pts, cx[p], cy[p]), d, null);
     }
     case K_COURTYARD: {
-      const pts = rectIntersectionPolygon(
-        cx[a], cy[a], c[a], s[a], hx[a] + g[a], hy[a] + g[a],
-        cx[b], cy[b], c[b], s[b], hx[b] + g[b], hy[b] + g[b],
-      );
-      rectCorners(cx[a], cy[a], c[a], s[a], hx[a], hy[a], quadA);
-      rectCorners(cx[b], cy[b], c[b], s[b], hx[b], hy[b], quadB);
-      const gap = convexGap(quadA, 4, quadB, 4);
-      const gapText = gap <= 1e-6 ? 'the bodies touch' : `bodies ${fmtMm(gap)} mm apart`;
       const [p, q] = swapped(input, a, b) ? [b, a] : [a, b];
-      const message = `Courtyards of ${partName(input, p)} and ${partName(input, q)} overlap by ${fmtMm(depth)} mm (${gapText})`;
-      return pairDraft(input, kind, severity, a, b, message, polyOrPoint(pts, cx[a], cy[a]), depth, gap <= 1e-6 ? 0 : gap);
+      const gp = g[p];
+      const gq = g[q];
+      const pts = rectIntersectionPolygon(
+        cx[p], cy[p], c[p], s[p], hx[p] + gp, hy[p] + gp,
+        cx[q], cy[q], c[q], s[q], hx[q] + gq, hy[q] + gq,
+      );
+      const d = rectSatDepth(
+        cx[p], cy[p], c[p], s[p], hx[p] + gp, hy[p] + gp,
+        cx[q], cy[q], c[q], s[q], hx[q] + gq, hy[q] + gq,
+      );
+      rectCorners(cx[p], cy[p], c[p], s[p], hx[p], hy[p], quadA);
+      rectCorners(cx[q], cy[q], c[q], s[q], hx[q], hy[q], quadB);
+      const gap = hx[p] * hy[p] > 0 && hx[q] * hy[q] > 0 ? convexGap(quadA, 4, quadB, 4) : pointGap(P, p, q);
+      const gapText = gap <= 1e-6 ? 'the bodies touch' : `bodies ${fmtMm(gap)} mm apart`;
+      const message = `Courtyards of ${partName(input, p)} and ${partName(input, q)} overlap by ${fmtMm(d)} mm (${gapText})`;
+      return pairDraft(input, kind, severity, a, b, message, polyOrPoint(pts, cx[p], cy[p]), d, gap <= 1e-6 ? 0 : gap);
     }
     case K_OFF_BOARD:
     case K_OVERHANG: {
