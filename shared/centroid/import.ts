@@ -1,6 +1,6 @@
 // Centroid import: dialect sniffing, header mapping, units, normalisation (CLI.md "Import").
 import Papa from 'papaparse';
-import { MM_PER_UNIT, normDeg } from '../geometry';
+import { MM_PER_UNIT } from '../geometry';
 import { EngineInputError } from '../pipeline/errors';
 import type {
   BottomRotation,
@@ -13,7 +13,14 @@ import type {
   Units,
 } from '../pipeline/types';
 import { analyseHeader, FIELDS, REQUIRED_FIELDS, type Field, type HeaderInfo } from './headers';
-import { parseFlagCell, parseNumberCell, parseRotationCell, parseSideCell } from './values';
+import * as values from './values';
+import { parseFlagCell, parseRotationCell, parseSideCell, scanNumberCell } from './values';
+
+/** trim only when needed (most cells have no surrounding blanks) */
+function trimCell(s: string): string {
+  const n = s.length;
+  return n > 0 && (s.charCodeAt(0) <= 32 || s.charCodeAt(n - 1) <= 32) ? s.trim() : s;
+}
 
 export interface ImportOptions {
   /** units given by the user; overrides the header */
@@ -248,8 +255,6 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
   const ys = new Float64Array(n);
   const xu = new Uint8Array(n);
   const yu = new Uint8Array(n);
-  const kept: number[] = [];
-  const lines = new Int32Array(n);
   const placements: ImportedPlacement[] = [];
   const seenRefs = new Map<string, number>();
   const bottomRotation = opts.bottomRotation ?? 'bottom-view';
@@ -268,14 +273,15 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
         if (cell.indexOf('\n') >= 0) line += cell.split('\n').length - 1;
       }
     }
-    if (row.length === 1 && row[0].trim() === '') continue;
-    const first = row[0].trimStart();
-    if (first.startsWith('#') || first.startsWith('//')) continue;
+    const first = row[0];
+    if (row.length === 1 && trimCell(first) === '') continue;
+    const f0 = first.charCodeAt(0);
+    if ((f0 === 35 || f0 === 47 || f0 <= 32) && /^\s*(#|\/\/)/.test(first)) continue;
     if (row.length < minCells) {
       if (row.every((c) => c.trim() === '')) continue;
       throw err(`expected at least ${minCells} columns, found ${row.length}`, { line: rowLine, code: 'short-row' });
     }
-    const ref = row[iRef].trim();
+    const ref = trimCell(row[iRef]);
     if (ref === '') throw err('empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' });
     const prev = seenRefs.get(ref);
     if (prev !== undefined) {
@@ -287,21 +293,23 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
     }
     seenRefs.set(ref, rowLine);
 
-    const px = parseNumberCell(row[iX], decimalComma);
-    if (!px) throw badNumber(row[iX], rowLine, infos[iX].raw);
-    const py = parseNumberCell(row[iY], decimalComma);
-    if (!py) throw badNumber(row[iY], rowLine, infos[iY].raw);
+    const vx = scanNumberCell(row[iX], decimalComma);
+    if (vx !== vx) throw badNumber(row[iX], rowLine, infos[iX].raw);
+    const ux = values.lastUnit;
+    const vy = scanNumberCell(row[iY], decimalComma);
+    if (vy !== vy) throw badNumber(row[iY], rowLine, infos[iY].raw);
+    const uy = values.lastUnit;
     const rot = parseRotationCell(row[iRot], decimalComma);
     if (rot === null) throw badNumber(row[iRot], rowLine, infos[iRot].raw);
     const idx = placements.length;
-    xs[idx] = px.value;
-    ys[idx] = py.value;
-    if (px.unit) xu[idx] = UNIT_CODE[px.unit];
-    if (py.unit) yu[idx] = UNIT_CODE[py.unit];
-    if (px.unit || py.unit) {
-      if (!firstSuffix) firstSuffix = { unit: (px.unit ?? py.unit)!, line: rowLine };
+    xs[idx] = vx;
+    ys[idx] = vy;
+    if (ux) xu[idx] = UNIT_CODE[ux];
+    if (uy) yu[idx] = UNIT_CODE[uy];
+    if (ux || uy) {
+      if (!firstSuffix) firstSuffix = { unit: (ux ?? uy)!, line: rowLine };
     }
-    if (!px.unit || !py.unit) {
+    if (!ux || !uy) {
       if (!anyPlain) firstPlainLine = rowLine;
       anyPlain = true;
     }
@@ -334,17 +342,15 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
       if (bottomRotation === 'negate') rotation = -rot;
       else if (bottomRotation === 'mirror-180') rotation = 180 - rot;
     }
-    lines[idx] = rowLine;
-    kept.push(r);
     placements.push({
       ref,
       x: 0,
       y: 0,
-      rotation: normDeg(rotation),
+      rotation: normRotation(rotation),
       side,
-      footprint: iFp >= 0 ? (row[iFp] ?? '').trim() : '',
-      value: iVal >= 0 ? (row[iVal] ?? '').trim() : '',
-      partNumber: iPn >= 0 ? (row[iPn] ?? '').trim() : '',
+      footprint: iFp >= 0 ? trimCell(row[iFp] ?? '') : '',
+      value: iVal >= 0 ? trimCell(row[iVal] ?? '') : '',
+      partNumber: iPn >= 0 ? trimCell(row[iPn] ?? '') : '',
       dnp,
       line: rowLine,
     });
@@ -430,6 +436,13 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
   function badNumber(cell: string, l: number, column: string): EngineInputError {
     return err(`expected a number, got "${cell.trim()}"`, { line: l, column, code: 'bad-number' });
   }
+}
+
+/** normDeg without the finiteness check (the parser already refused non-finite numbers) */
+function normRotation(a: number): number {
+  let r = a % 360;
+  if (r < 0) r += 360;
+  return r >= 360 - 1e-9 || r < 1e-12 ? 0 : r;
 }
 
 function fieldLabel(f: Field): string {

@@ -14,25 +14,37 @@ export interface ParsedNumber {
   unit: Units | null;
 }
 
-/** Parse a numeric cell. Returns null when the cell is not a number. With `decimalComma` a
- * comma is the decimal separator; without it, a comma makes the cell invalid. */
-export function parseNumberCell(s: string, decimalComma: boolean): ParsedNumber | null {
+/** The unit suffix of the last `scanNumberCell` (null when none); avoids an object per cell. */
+export let lastUnit: Units | null = null;
+
+/** Parse a numeric cell: the number, or NaN when the cell is not one; its unit suffix, if any,
+ * is left in `lastUnit`. With `decimalComma` a comma is the decimal separator; without it, a
+ * comma makes the cell invalid. */
+export function scanNumberCell(s: string, decimalComma: boolean): number {
+  lastUnit = null;
   // fast path: plain decimal number
   const c0 = s.charCodeAt(0);
   if ((c0 >= 48 && c0 <= 57) || c0 === 45) {
     const n = +s;
-    if (n - n === 0 && !(c0 === 48 && isRadixLetter(s.charCodeAt(1)))) return { value: n, unit: null };
+    if (n - n === 0 && !(c0 === 48 && isRadixLetter(s.charCodeAt(1)))) return n;
   }
   const m = NUM.exec(s);
-  if (!m) return null;
+  if (!m) return NaN;
   let num = m[1];
   if (num.indexOf(',') >= 0) {
-    if (!decimalComma) return null;
+    if (!decimalComma) return NaN;
     num = num.replace(',', '.');
   }
   const value = +num;
-  if (!Number.isFinite(value)) return null;
-  return { value, unit: m[2] ? unitWord(m[2]) : null };
+  if (!Number.isFinite(value)) return NaN;
+  lastUnit = m[2] ? unitWord(m[2]) : null;
+  return value;
+}
+
+/** Parse a numeric cell into { value, unit }, or null when the cell is not a number. */
+export function parseNumberCell(s: string, decimalComma: boolean): ParsedNumber | null {
+  const value = scanNumberCell(s, decimalComma);
+  return Number.isNaN(value) ? null : { value, unit: lastUnit };
 }
 
 const ROT = /^\s*([-+]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][-+]?\d+)?)\s*(°|deg|degrees)?\s*$/i;
@@ -62,19 +74,30 @@ const SIDES = new Map<string, Side>([
   ['solderside', 'bottom'], ['bcu', 'bottom'],
 ]);
 
+const sideCache = new Map<string, Side | null>();
+
 /** top/bottom, t/b, top/bot, front/back, f/b, component/solder (any case; "Top Layer" too). */
 export function parseSideCell(s: string): Side | null {
-  const k = s.toLowerCase().replace(/[^a-z]/g, '');
-  return SIDES.get(k) ?? null;
+  let r = sideCache.get(s);
+  if (r === undefined) {
+    r = SIDES.get(s.toLowerCase().replace(/[^a-z]/g, '')) ?? null;
+    if (sideCache.size < 1000) sideCache.set(s, r);
+  }
+  return r;
 }
 
 const TRUE_WORDS = new Set(['yes', 'y', 'true', '1', 'x']);
 const FALSE_WORDS = new Set(['no', 'n', 'false', '0', '']);
 
+const flagCache = new Map<string, boolean | null>();
+
 /** yes/no, true/false, 1/0, x/empty → boolean; null when unrecognised. */
 export function parseFlagCell(s: string): boolean | null {
-  const k = s.trim().toLowerCase().replace(/\s+/g, '');
-  if (TRUE_WORDS.has(k)) return true;
-  if (FALSE_WORDS.has(k)) return false;
-  return null;
+  let r = flagCache.get(s);
+  if (r === undefined) {
+    const k = s.trim().toLowerCase().replace(/\s+/g, '');
+    r = TRUE_WORDS.has(k) ? true : FALSE_WORDS.has(k) ? false : null;
+    if (flagCache.size < 1000) flagCache.set(s, r);
+  }
+  return r;
 }

@@ -1,4 +1,4 @@
-import type { PlacementColumns, PlacementRecord } from './types';
+import type { PlacementColumns, PlacementRecord, Side } from './types';
 
 const nn = (v: number): number | null => (Number.isNaN(v) ? null : v);
 
@@ -35,37 +35,91 @@ export function placementRecord(p: PlacementColumns, i: number): PlacementRecord
 
 /** All placements as records (convenient for small lists and tests; allocates). */
 export function placementRecords(p: PlacementColumns): PlacementRecord[] {
-  const out: PlacementRecord[] = new Array(p.count);
-  for (let i = 0; i < p.count; i++) out[i] = placementRecord(p, i);
+  const out: PlacementRecord[] = [];
+  for (let i = 0; i < p.count; i++) out.push(placementRecord(p, i));
   return out;
 }
 
-/** Empty columns of length n, numeric arrays zeroed (NaN for the nullable ones). */
-export function allocatePlacementColumns(n: number): PlacementColumns {
-  const nan = (): Float64Array => new Float64Array(n).fill(NaN);
+/** A packed array of n copies of `v` (avoids `new Array(n)`, which is slow past ~100,000 slots). */
+export function filledArray<T>(n: number, v: T): T[] {
+  const a: T[] = [];
+  for (let i = 0; i < n; i++) a.push(v);
+  return a;
+}
+
+const EMPTY_F64 = new Float64Array(0);
+
+/** Empty columns of length n: numeric arrays zeroed (NaN for the nullable ones), text columns ''
+ * and nullable text columns null, side 'top'. With `text` false only the computed columns (seq,
+ * board, x, y, originX, originY, rotation, sourceIndex) are allocated; the caller defines the
+ * repeated ones (defineLazyColumns). */
+export function allocatePlacementColumns(n: number, text = true): PlacementColumns {
+  // one buffer for the ten Float64 columns and one for the three Int32 columns: few large
+  // allocations instead of many (the columns are views; each has its own length n)
+  const f64 = new ArrayBuffer(8 * n * (text ? 10 : 5));
+  const i32 = new ArrayBuffer(4 * n * 3);
+  let fi = 0;
+  let ii = 0;
+  const f = (): Float64Array => new Float64Array(f64, 8 * n * fi++, n);
+  const int = (): Int32Array => new Int32Array(i32, 4 * n * ii++, n);
+  const nan = (): Float64Array => (text ? f().fill(NaN) : EMPTY_F64);
+  const g = (): Float64Array => (text ? f() : EMPTY_F64);
+  const t = <T>(v: T): T[] => (text ? filledArray(n, v) : []);
   return {
     count: n,
-    seq: new Int32Array(n),
-    board: new Int32Array(n),
-    ref: new Array(n),
-    side: new Array(n),
-    x: new Float64Array(n),
-    y: new Float64Array(n),
-    originX: new Float64Array(n),
-    originY: new Float64Array(n),
-    rotation: new Float64Array(n),
-    packageName: new Array(n),
-    nozzle: new Array(n),
-    vision: new Array(n),
+    seq: int(),
+    board: int(),
+    ref: t(''),
+    side: t<Side>('top'),
+    x: f(),
+    y: f(),
+    originX: f(),
+    originY: f(),
+    rotation: f(),
+    packageName: t<string | null>(null),
+    nozzle: t<string | null>(null),
+    vision: t<string | null>(null),
     bodyLength: nan(),
     bodyWidth: nan(),
     bodyHeight: nan(),
-    courtyard: new Float64Array(n),
-    overhang: new Uint8Array(n),
+    courtyard: g(),
+    overhang: text ? new Uint8Array(n) : new Uint8Array(0),
     holderRadius: nan(),
-    partNumber: new Array(n),
-    value: new Array(n),
-    footprint: new Array(n),
-    sourceIndex: new Int32Array(n),
+    partNumber: t(''),
+    value: t(''),
+    footprint: t(''),
+    sourceIndex: int(),
   };
+}
+
+/** Columns that only repeat per-part data (the same on every board). */
+export type RepeatedColumn =
+  | 'ref' | 'side' | 'partNumber' | 'value' | 'footprint' | 'packageName' | 'nozzle' | 'vision'
+  | 'bodyLength' | 'bodyWidth' | 'bodyHeight' | 'courtyard' | 'overhang' | 'holderRadius';
+
+/**
+ * Columns that only repeat per-part data are built on first read: the getter makes the
+ * full-length array once (the board's values repeated per placed board), then replaces itself
+ * with a plain data property. Reading, writing, spreading and JSON behave as for a plain property.
+ */
+export function defineLazyColumns(
+  cols: PlacementColumns,
+  builders: { [K in RepeatedColumn]?: () => PlacementColumns[K] },
+): void {
+  for (const key of Object.keys(builders) as RepeatedColumn[]) {
+    const settle = (v: unknown) =>
+      Object.defineProperty(cols, key, { value: v, writable: true, enumerable: true, configurable: true });
+    Object.defineProperty(cols, key, {
+      enumerable: true,
+      configurable: true,
+      get() {
+        const v = builders[key]!();
+        settle(v);
+        return v;
+      },
+      set(v: unknown) {
+        settle(v);
+      },
+    });
+  }
 }

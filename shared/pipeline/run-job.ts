@@ -7,9 +7,10 @@ import { boardInstances, designToSidePanel, sideAffine, sideRotationTerm } from 
 import type { Job } from '../schemas/job.schema';
 import type { LibraryFile } from '../schemas/library-file.schema';
 import { EngineInputError } from './errors';
-import { allocatePlacementColumns } from './records';
+import { allocatePlacementColumns, defineLazyColumns } from './records';
 import type {
   BoardInstanceResult,
+  PlacementColumns,
   BoardTransform,
   EngineWarning,
   FiducialUsed,
@@ -157,16 +158,17 @@ export function runJob(input: RunJobInput): RunResult {
   const offX = new Float64Array(m), offY = new Float64Array(m), hasOff = new Uint8Array(m);
   const pl = new Float64Array(m).fill(NaN), pw = new Float64Array(m).fill(NaN), ph = new Float64Array(m).fill(NaN);
   const court = new Float64Array(m), over = new Uint8Array(m), holder = new Float64Array(m).fill(NaN);
-  const pkgName: (string | null)[] = new Array(m), nozzle: (string | null)[] = new Array(m), vision: (string | null)[] = new Array(m);
+  const pkgName: (string | null)[] = [], nozzle: (string | null)[] = [], vision: (string | null)[] = [];
+  const partIndex = Int32Array.from(parts);
   const unmatched = new Map<string, UnmatchedFootprint>();
   for (let j = 0; j < m; j++) {
     const p = src[parts[j]];
     sx[j] = p.x; sy[j] = p.y;
     const a = assigner.assign(p.footprint);
     srot[j] = p.rotation + (a.pkg ? a.pkg.rotationOffset : 0);
-    pkgName[j] = a.pkg ? a.pkg.name : null;
-    nozzle[j] = a.nozzle;
-    vision[j] = a.vision;
+    pkgName.push(a.pkg ? a.pkg.name : null);
+    nozzle.push(a.nozzle);
+    vision.push(a.vision);
     if (a.pkg) {
       const b = a.pkg.body;
       pl[j] = b.length; pw[j] = b.width; ph[j] = b.height;
@@ -187,50 +189,38 @@ export function runJob(input: RunJobInput): RunResult {
 
   // ---- step-out: the hot loop ---------------------------------------------------------------
   const total = m * placedBoards.length;
-  const out = allocatePlacementColumns(total);
-  const { x: ox, y: oy, originX, originY, rotation, seq, board: boardCol, sourceIndex } = out;
+  const out = allocatePlacementColumns(total, false);
   let k = 0;
   for (const inst of placedBoards) {
-    const M = composeAffine(outputMapOf(inst.number), boardMaps.get(inst.number)!);
-    const { a, b, c, d, tx, ty } = M;
-    const rotTerm = sideRotationTerm(side, flipAxis, inst.rotation) + rotOf(outputMapOf(inst.number));
-    const num = inst.number;
-    for (let j = 0; j < m; j++, k++) {
-      const u = sx[j], v = sy[j];
-      const X = a * u + b * v + tx;
-      const Y = c * u + d * v + ty;
-      let r = (srot[j] + rotTerm) % 360;
-      if (r < 0) r += 360;
-      if (r >= 360 - 1e-9 || r < 1e-12) r = 0;
-      originX[k] = X;
-      originY[k] = Y;
-      rotation[k] = r;
-      if (hasOff[j] === 1) {
-        const rad = (r * Math.PI) / 180;
-        const cs = Math.cos(rad), sn = Math.sin(rad);
-        ox[k] = X + cs * offX[j] - sn * offY[j];
-        oy[k] = Y + sn * offX[j] + cs * offY[j];
-      } else {
-        ox[k] = X;
-        oy[k] = Y;
-      }
-      seq[k] = k + 1;
-      boardCol[k] = num;
-      sourceIndex[k] = parts[j];
-    }
+    const T = outputMapOf(inst.number);
+    const rotTerm = sideRotationTerm(side, flipAxis, inst.rotation) + rotOf(T);
+    stepOut(out, k, composeAffine(T, boardMaps.get(inst.number)!), rotTerm, inst.number, sx, sy, srot, hasOff, offX, offY, partIndex);
+    k += m;
   }
-  // string and per-part columns, board by board (copies of references)
-  const refs = out.ref, sides = out.side, pn = out.partNumber, val = out.value, fp = out.footprint;
-  k = 0;
-  for (let bi = 0; bi < placedBoards.length; bi++) {
-    for (let j = 0; j < m; j++, k++) {
-      const p = src[parts[j]];
-      refs[k] = p.ref; sides[k] = side; pn[k] = p.partNumber; val[k] = p.value; fp[k] = p.footprint;
-      out.packageName[k] = pkgName[j]; out.nozzle[k] = nozzle[j]; out.vision[k] = vision[j];
-    }
-    out.bodyLength.set(pl, bi * m); out.bodyWidth.set(pw, bi * m); out.bodyHeight.set(ph, bi * m);
-    out.courtyard.set(court, bi * m); out.overhang.set(over, bi * m); out.holderRadius.set(holder, bi * m);
+  // columns that only repeat per-part data (text, package body, courtyard, nozzle holder) are built
+  // on first read (defineLazyColumns): the board's column repeated once per placed board.
+  const B = placedBoards.length;
+  const refOne: string[] = [], pnOne: string[] = [], valOne: string[] = [], fpOne: string[] = [], sideOne: Side[] = [];
+  for (let j = 0; j < m; j++) {
+    const p = src[parts[j]];
+    refOne.push(p.ref); pnOne.push(p.partNumber); valOne.push(p.value); fpOne.push(p.footprint); sideOne.push(side);
   }
+  defineLazyColumns(out, {
+    ref: () => repeatColumn(refOne, B),
+    side: () => repeatColumn(sideOne, B),
+    partNumber: () => repeatColumn(pnOne, B),
+    value: () => repeatColumn(valOne, B),
+    footprint: () => repeatColumn(fpOne, B),
+    packageName: () => repeatColumn(pkgName, B),
+    nozzle: () => repeatColumn(nozzle, B),
+    vision: () => repeatColumn(vision, B),
+    bodyLength: () => repeatTyped(pl, B),
+    bodyWidth: () => repeatTyped(pw, B),
+    bodyHeight: () => repeatTyped(ph, B),
+    courtyard: () => repeatTyped(court, B),
+    overhang: () => repeatTyped(over, B),
+    holderRadius: () => repeatTyped(holder, B),
+  });
 
   // ---- outlines and fiducials in the output frame ----------------------------------------------
   const boards: BoardInstanceResult[] = instances.map((inst) => {
@@ -282,4 +272,66 @@ export function runJob(input: RunJobInput): RunResult {
     import: imported,
     warnings,
   };
+}
+
+/** `n` copies of a typed column, one after another. */
+function repeatTyped<A extends Float64Array | Uint8Array>(one: A, n: number): A {
+  const out = new (one.constructor as { new (len: number): A })(one.length * n);
+  for (let i = 0; i < n; i++) out.set(one, i * one.length);
+  return out;
+}
+
+/** `n` copies of a column, one after another, as one packed array (native concat). */
+function repeatColumn<T>(one: T[], n: number): T[] {
+  if (n === 0) return [];
+  const copies: T[][] = [];
+  for (let i = 0; i < n; i++) copies.push(one);
+  return Array.prototype.concat.apply([], copies) as T[];
+}
+
+/**
+ * The hot loop: one board's parts through M (design → output frame), from index k0 on.
+ * Rotation = part term (θ or θb, plus the package offset) + board term, normalised to [0, 360);
+ * body centre = placement + body offset turned by that rotation (not scaled).
+ */
+function stepOut(
+  out: PlacementColumns,
+  k0: number,
+  M: Affine,
+  rotTerm: number,
+  boardNumber: number,
+  sx: Float64Array,
+  sy: Float64Array,
+  srot: Float64Array,
+  hasOff: Uint8Array,
+  offX: Float64Array,
+  offY: Float64Array,
+  partIndex: Int32Array,
+): void {
+  const { x: ox, y: oy, originX, originY, rotation, seq, board, sourceIndex } = out;
+  const a = M.a, b = M.b, c = M.c, d = M.d, tx = M.tx, ty = M.ty;
+  const m = sx.length;
+  const DEG = Math.PI / 180;
+  for (let j = 0, k = k0; j < m; j++, k++) {
+    const u = sx[j], v = sy[j];
+    const X = a * u + b * v + tx;
+    const Y = c * u + d * v + ty;
+    let r = (srot[j] + rotTerm) % 360;
+    if (r < 0) r += 360;
+    if (r >= 360 - 1e-9 || r < 1e-12) r = 0;
+    originX[k] = X;
+    originY[k] = Y;
+    rotation[k] = r;
+    if (hasOff[j] === 1) {
+      const cs = Math.cos(r * DEG), sn = Math.sin(r * DEG);
+      ox[k] = X + cs * offX[j] - sn * offY[j];
+      oy[k] = Y + sn * offX[j] + cs * offY[j];
+    } else {
+      ox[k] = X;
+      oy[k] = Y;
+    }
+    seq[k] = k + 1;
+    board[k] = boardNumber;
+    sourceIndex[k] = partIndex[j];
+  }
 }

@@ -53,8 +53,7 @@ function meta(r: RunResult, o: WriteOptions): ListMeta {
 export function placementCsvBody(r: RunResult): string {
   const p = r.placements;
   const n = p.count;
-  const lines: string[] = new Array(n + 2);
-  lines[0] = CSV_HEADER;
+  const lines: string[] = [CSV_HEADER];
   const quoted = new Map<string | null, string>();
   const qc = (s: string | null): string => {
     let v = quoted.get(s);
@@ -76,11 +75,12 @@ export function placementCsvBody(r: RunResult): string {
         heights.set(h, hs);
       }
     }
-    lines[i + 1] =
+    lines.push(
       seq[i] + ',' + board[i] + ',' + csvField(ref[i]) + ',' + fmt3(x[i]) + ',' + fmt3(y[i]) + ',' + fmtRot3(rotation[i]) + ',' +
-      qc(packageName[i]) + ',' + qc(nozzle[i]) + ',' + qc(vision[i]) + ',' + hs + ',' + qc(partNumber[i]) + ',' + qc(value[i]);
+      qc(packageName[i]) + ',' + qc(nozzle[i]) + ',' + qc(vision[i]) + ',' + hs + ',' + qc(partNumber[i]) + ',' + qc(value[i]),
+    );
   }
-  lines[n + 1] = '';
+  lines.push('');
   return lines.join('\n');
 }
 
@@ -107,10 +107,10 @@ export async function writePlacementListCsv(r: RunResult, o: WriteOptions = {}):
 /** The neutral list as a JSON object (numbers not rounded). */
 export function placementListObject(r: RunResult, o: WriteOptions = {}): Omit<PlacementList, 'encoding'> {
   const p = r.placements;
-  const placements: PlacementList['placements'] = new Array(p.count);
+  const placements: PlacementList['placements'] = [];
   for (let i = 0; i < p.count; i++) {
     const h = p.bodyHeight[i];
-    placements[i] = {
+    placements.push({
       seq: p.seq[i],
       board: p.board[i],
       ref: p.ref[i],
@@ -123,7 +123,7 @@ export function placementListObject(r: RunResult, o: WriteOptions = {}): Omit<Pl
       height: h === h ? h : null,
       partNumber: p.partNumber[i],
       value: p.value[i],
-    };
+    });
   }
   return { format: LIST_FORMAT, meta: meta(r, o), fiducials: listFiducials(r), placements };
 }
