@@ -21,6 +21,7 @@ import { registerMailRoutes } from './modules/mail/mail.router';
 import type { Mailer } from './modules/mail/mailer';
 import { UserService } from './modules/users/user.service';
 import { registerUserRoutes } from './modules/users/user.router';
+import { registerLibraryRoutes } from './modules/library/library.router';
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 export const APP_VERSION = '0.1.0';
@@ -105,6 +106,7 @@ export function createApp(deps: AppDeps): Express & { locals: { routes: ApiRoute
   registerUserRoutes(api, users);
   registerAuditRoutes(api, audit);
   registerMailRoutes(api, ds);
+  registerLibraryRoutes(api, { ds, audit, users, mailer, publicUrl: env.PUBLIC_URL ?? `http://localhost:${env.PORT}` });
   app.use('/api', api.router);
   app.use('/api', apiNotFound);
 

@@ -104,21 +104,20 @@ export function blankPackage(nameValue = ''): CreatePackageInput {
 
 /**
  * Advice that does not block saving (DOMAIN.md section 8, common practice): a nozzle tip wider than
- * the body's smaller side, a nozzle or preset that is not in the library.
+ * the body's smaller side may not seal on the part. Unknown nozzles are errors, checked elsewhere.
  */
 export function packageWarnings(
-  p: Pick<PackageFieldValues, 'bodyLength' | 'bodyWidth' | 'nozzles' | 'vision'>,
+  p: Pick<PackageFieldValues, 'bodyLength' | 'bodyWidth' | 'nozzles'>,
   nozzles: readonly { name: string; tipOuter: number }[],
-  presets?: readonly { name: string }[],
 ): { path: string; message: string }[] {
   const out: { path: string; message: string }[] = [];
   const side = Math.min(p.bodyLength, p.bodyWidth);
   p.nozzles.forEach((n, i) => {
     const nz = nozzles.find((x) => x.name === n);
-    if (!nz) out.push({ path: `nozzles.${i}`, message: `Nozzle ${n} is not in the library` });
-    else if (nz.tipOuter > side + EPS) out.push({ path: `nozzles.${i}`, message: `Nozzle ${n}'s tip (${nz.tipOuter.toFixed(3)} mm) is wider than the body's smaller side (${side.toFixed(3)} mm): it may not seal on the part` });
+    if (nz && Number.isFinite(side) && nz.tipOuter > side + EPS) {
+      out.push({ path: `nozzles.${i}`, message: `Nozzle ${n}'s tip (${nz.tipOuter.toFixed(3)} mm) is wider than the body's smaller side (${side.toFixed(3)} mm): it may not seal on the part` });
+    }
   });
-  if (presets && p.vision && !presets.some((v) => v.name === p.vision)) out.push({ path: 'vision', message: `Vision preset ${p.vision} is not in the library` });
   return out;
 }
 
