@@ -11,6 +11,7 @@ const AccountRoute = lazy(() => import('./routes/account'));
 const UsersRoute = lazy(() => import('./routes/admin/users'));
 const AuditRoute = lazy(() => import('./routes/admin/audit'));
 const OutboxRoute = lazy(() => import('./routes/admin/outbox'));
+const CanvasPreviewRoute = lazy(() => import('./routes/canvas-preview'));
 const NotFoundRoute = lazy(() => import('./routes/not-found'));
 
 function Loading() {
@@ -58,6 +59,7 @@ export const routes = [
       { path: 'admin/users', element: page(<RequireRole roles={['admin']}><UsersRoute /></RequireRole>) },
       { path: 'admin/audit', element: page(<RequireRole roles={['admin']}><AuditRoute /></RequireRole>) },
       { path: 'admin/outbox', element: page(<RequireRole roles={['admin']}><OutboxRoute /></RequireRole>) },
+      { path: 'panel-preview', element: page(<RequireRole roles={['engineer']}><CanvasPreviewRoute /></RequireRole>) },
       { path: '*', element: page(<NotFoundRoute />) },
     ],
   },

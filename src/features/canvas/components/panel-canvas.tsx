@@ -1,0 +1,500 @@
+// The panel drawn to scale: Konva layers with one batch-drawing shape each, our own pointer and
+// keyboard handling, hit testing through the body index. Draws what the engine computed.
+import type Konva from 'konva';
+import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
+import { Layer, Shape, Stage } from 'react-konva';
+import {
+  applyAffine,
+  fitUnderlay,
+  fitView,
+  hitBox,
+  hitPoint,
+  invertAffine,
+  panBy,
+  screenToWorld,
+  zoomAbout,
+  type ViewTransform,
+} from '../../../../shared/canvas';
+import type { RunResult } from '../../../../shared/pipeline/types';
+import type { Finding } from '../../../../shared/schemas/finding.schema';
+import { drawBase, drawBodies, drawOverlay, drawUnderlay, type CanvasNote, type OverlayState } from '../draw';
+import { useElementSize } from '../hooks/use-element-size';
+import { CANVAS_COLORS } from '../palette';
+import { buildScene, dimMask, type Scene } from '../scene';
+import { CanvasStore, LAYERS, useCanvasState, type CanvasState } from '../store';
+import type { NewNote, UnderlayState } from '../types';
+import { CursorReadout, HelpPopover, HoverCard, NoteEditor, ScaleBar, SideBadge } from './canvas-chrome';
+
+export interface DrawStats {
+  /** which layers were drawn */
+  layers: string[];
+  /** time spent drawing them, ms */
+  ms: number;
+}
+
+export interface PanelCanvasProps {
+  /** one side of one panel, as the engine produced it */
+  run: RunResult;
+  /** findings of the job (only those of `run.side` are drawn) */
+  findings: readonly Finding[];
+  /** shared with the tables (PanelReview passes one); a private store otherwise */
+  store?: CanvasStore;
+  /** buildScene(run, findings) when the caller already has it (PanelReview does) */
+  scene?: Scene;
+  /** finding keys the reviewer has marked checked (drawn faint and dashed) */
+  checkedFindingKeys?: ReadonlySet<string>;
+  /** comments pinned at output-frame coordinates */
+  notes?: readonly CanvasNote[];
+  /** the note tool was used: a new comment at a point */
+  onAddNote?: (note: NewNote) => void;
+  underlay?: UnderlayState | null;
+  onUnderlayChange?: (u: UnderlayState | null) => void;
+  /** canvas height in px (the width follows the container) */
+  height?: number;
+  /** called after every draw pass (the benchmark reads it) */
+  onDraw?: (stats: DrawStats) => void;
+  /** accessible name of the canvas region */
+  label?: string;
+}
+
+const DIRTY_UNDERLAY = 1, DIRTY_BASE = 2, DIRTY_BODIES = 4, DIRTY_OVERLAY = 8, DIRTY_ALL = 15;
+const CLICK_SLOP = 4;
+
+export function PanelCanvas({
+  run,
+  findings,
+  store: given,
+  scene: givenScene,
+  checkedFindingKeys,
+  notes = [],
+  onAddNote,
+  underlay = null,
+  onUnderlayChange,
+  height = 560,
+  onDraw,
+  label,
+}: PanelCanvasProps) {
+  const own = useMemo(() => new CanvasStore(), []);
+  const store = given ?? own;
+  const scene = useMemo(() => givenScene ?? buildScene(run, findings), [givenScene, run, findings]);
+  const containerRef = useRef<HTMLDivElement>(null);
+  const size = useElementSize(containerRef, { width: 900, height });
+  const width = size.width;
+
+  // everything the draw functions read lives in refs: a pan never re-renders React
+  const sceneRef = useRef<Scene>(scene);
+  const sizeRef = useRef({ width, height });
+  const dimRef = useRef<Uint8Array | null>(null);
+  const imageRef = useRef<HTMLImageElement | null>(null);
+  const underlayRef = useRef(underlay);
+  const extrasRef = useRef({ checked: checkedFindingKeys ?? new Set<string>(), notes, box: null as OverlayState['box'], pendingNote: null as { x: number; y: number } | null, alignImage: [] as { x: number; y: number }[], alignPanel: [] as { x: number; y: number }[] });
+  const layerRefs = { underlay: useRef<Konva.Layer>(null), base: useRef<Konva.Layer>(null), bodies: useRef<Konva.Layer>(null), overlay: useRef<Konva.Layer>(null) };
+  const dirty = useRef(0);
+  const frame = useRef(0);
+  const onDrawRef = useRef(onDraw);
+  onDrawRef.current = onDraw;
+
+  const flush = useCallback(() => {
+    frame.current = 0;
+    const d = dirty.current;
+    dirty.current = 0;
+    const t0 = performance.now();
+    const drawn: string[] = [];
+    if (d & DIRTY_UNDERLAY && layerRefs.underlay.current) { layerRefs.underlay.current.draw(); drawn.push('underlay'); }
+    if (d & DIRTY_BASE && layerRefs.base.current) { layerRefs.base.current.draw(); drawn.push('base'); }
+    if (d & DIRTY_BODIES && layerRefs.bodies.current) { layerRefs.bodies.current.draw(); drawn.push('bodies'); }
+    if (d & DIRTY_OVERLAY && layerRefs.overlay.current) { layerRefs.overlay.current.draw(); drawn.push('overlay'); }
+    onDrawRef.current?.({ layers: drawn, ms: performance.now() - t0 });
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+  const schedule = useCallback(
+    (mask: number) => {
+      dirty.current |= mask;
+      if (!frame.current) frame.current = requestAnimationFrame(flush);
+    },
+    [flush],
+  );
+  useEffect(() => () => cancelAnimationFrame(frame.current), []);
+
+  // ---- keep refs current -----------------------------------------------------------------------
+  useEffect(() => {
+    sceneRef.current = scene;
+    store.links = scene.links;
+    dimRef.current = dimMask(scene, store.getState().filters);
+    store.set({ selected: new Set(), selectedFindings: new Set(), hovered: -1, measure: [] });
+    schedule(DIRTY_ALL);
+  }, [scene, store, schedule]);
+
+  useEffect(() => {
+    extrasRef.current.checked = checkedFindingKeys ?? new Set();
+    extrasRef.current.notes = notes;
+    schedule(DIRTY_OVERLAY);
+  }, [checkedFindingKeys, notes, schedule]);
+
+  useEffect(() => {
+    underlayRef.current = underlay;
+    if (!underlay) {
+      imageRef.current = null;
+      schedule(DIRTY_UNDERLAY);
+      return;
+    }
+    if (imageRef.current?.src === underlay.url || imageRef.current?.dataset.url === underlay.url) {
+      schedule(DIRTY_UNDERLAY | DIRTY_OVERLAY);
+      return;
+    }
+    const img = new Image();
+    img.dataset.url = underlay.url;
+    img.onload = () => {
+      imageRef.current = img;
+      schedule(DIRTY_UNDERLAY | DIRTY_OVERLAY);
+    };
+    img.src = underlay.url;
+  }, [underlay, schedule]);
+
+  // fit when the run or the size changes
+  const fit = useCallback(() => {
+    const { width: w, height: h } = sizeRef.current;
+    store.set({ view: fitView(sceneRef.current.bounds, w, h, 28) });
+  }, [store]);
+  useEffect(() => {
+    sizeRef.current = { width, height };
+    fit();
+  }, [width, height, scene, fit]);
+
+  // store → which layers to redraw
+  useEffect(() => {
+    let prev = store.getState();
+    return store.subscribe(() => {
+      const s = store.getState();
+      let d = 0;
+      if (s.view !== prev.view || s.layers !== prev.layers) d = DIRTY_ALL;
+      if (s.filters !== prev.filters) {
+        dimRef.current = dimMask(sceneRef.current, s.filters);
+        d |= DIRTY_BODIES | DIRTY_OVERLAY;
+      }
+      if (s.selected !== prev.selected || s.selectedFindings !== prev.selectedFindings || s.hovered !== prev.hovered || s.measure !== prev.measure || s.tool !== prev.tool) d |= DIRTY_OVERLAY;
+      if (s.fitRequest !== prev.fitRequest) fit();
+      if (s.focus && s.focus !== prev.focus && s.view) {
+        const { width: w, height: h } = sizeRef.current;
+        const v = s.view;
+        // keep the scale unless the whole panel shows: then zoom to about 8 px/mm
+        const k = Math.max(v.s, 8);
+        store.set({ view: { s: k, ox: w / 2 - k * s.focus.x, oy: h / 2 + k * s.focus.y } });
+      }
+      if (s.tool !== prev.tool && s.tool !== 'align') {
+        extrasRef.current.alignImage = [];
+        extrasRef.current.alignPanel = [];
+      }
+      prev = s;
+      if (d) schedule(d);
+    });
+  }, [store, schedule, fit]);
+
+  // ---- scene functions -------------------------------------------------------------------------
+  const vp = () => ({ view: store.getState().view as ViewTransform, width: sizeRef.current.width, height: sizeRef.current.height });
+  const native = (c: Konva.Context) => c._context as CanvasRenderingContext2D;
+  const sceneUnderlay = (c: Konva.Context) => {
+    const s = store.getState();
+    const u = underlayRef.current;
+    if (!s.view || !u || !imageRef.current || !s.layers.underlay) return;
+    drawUnderlay(native(c), vp(), imageRef.current, u.transform, u.opacity);
+  };
+  const sceneBase = (c: Konva.Context) => {
+    const s = store.getState();
+    if (s.view) drawBase(native(c), sceneRef.current, vp(), s.layers);
+  };
+  const sceneBodies = (c: Konva.Context) => {
+    const s = store.getState();
+    if (s.view) drawBodies(native(c), sceneRef.current, vp(), s.layers, dimRef.current);
+  };
+  const sceneOverlay = (c: Konva.Context) => {
+    const s = store.getState();
+    if (!s.view) return;
+    const e = extrasRef.current;
+    const kinds = s.filters.kinds;
+    const u = underlayRef.current;
+    drawOverlay(native(c), sceneRef.current, vp(), {
+      layers: s.layers,
+      selected: s.selected,
+      selectedFindings: s.selectedFindings,
+      checked: e.checked,
+      hovered: s.hovered,
+      measure: s.measure,
+      notes: e.notes,
+      dim: dimRef.current,
+      findingDim: kinds.length ? (f) => !kinds.includes(f.kind) : null,
+      alignImage: u ? e.alignImage.map((q) => applyAffine(u.transform, q.x, q.y)) : [],
+      alignPanel: e.alignPanel,
+      box: e.box,
+      pendingNote: e.pendingNote,
+    });
+  };
+
+  // ---- pointer -------------------------------------------------------------------------------
+  const drag = useRef<{ x: number; y: number; sx: number; sy: number; mode: 'pan' | 'box'; moved: boolean; id: number } | null>(null);
+  const [pendingNote, setPendingNote] = useState<{ x: number; y: number } | null>(null);
+  const [alignStep, setAlignStep] = useState<string | null>(null);
+  const [alignError, setAlignError] = useState<string | null>(null);
+  const hoverPos = useRef({ x: 0, y: 0 });
+  const [hoverXY, setHoverXY] = useState({ x: 0, y: 0 });
+
+  const local = (e: { clientX: number; clientY: number }) => {
+    const r = containerRef.current!.getBoundingClientRect();
+    return { x: e.clientX - r.left, y: e.clientY - r.top };
+  };
+  const visibleAccept = () => (store.getState().layers.bodies ? undefined : () => false);
+
+  const onPointerDown = (e: React.PointerEvent<HTMLDivElement>) => {
+    containerRef.current?.focus({ preventScroll: true });
+    const p = local(e);
+    const box = e.shiftKey && e.button === 0 && store.getState().tool === 'select';
+    drag.current = { x: p.x, y: p.y, sx: p.x, sy: p.y, mode: box ? 'box' : 'pan', moved: false, id: e.pointerId };
+    (e.target as Element).setPointerCapture?.(e.pointerId);
+  };
+
+  const onPointerMove = (e: React.PointerEvent<HTMLDivElement>) => {
+    const p = local(e);
+    const s = store.getState();
+    if (!s.view) return;
+    const d = drag.current;
+    if (d) {
+      if (!d.moved && Math.hypot(p.x - d.sx, p.y - d.sy) > CLICK_SLOP) d.moved = true;
+      if (d.moved && d.mode === 'pan') {
+        store.set({ view: panBy(s.view, p.x - d.x, p.y - d.y) });
+      } else if (d.moved && d.mode === 'box') {
+        extrasRef.current.box = { x0: d.sx, y0: d.sy, x1: p.x, y1: p.y };
+        schedule(DIRTY_OVERLAY);
+      }
+      d.x = p.x;
+      d.y = p.y;
+    }
+    const w = screenToWorld(s.view, p.x, p.y);
+    const hit = d?.moved ? -1 : hitPoint(sceneRef.current.index, w.x, w.y, 2 / s.view.s, visibleAccept());
+    hoverPos.current = p;
+    if (hit !== s.hovered) {
+      setHoverXY(p);
+      store.set({ hovered: hit, cursor: w });
+    } else {
+      store.set({ cursor: w });
+      if (hit >= 0) setHoverXY(p);
+    }
+  };
+
+  const clickAt = (p: { x: number; y: number }, e: { shiftKey: boolean; ctrlKey: boolean; metaKey: boolean }) => {
+    const s = store.getState();
+    if (!s.view) return;
+    const w = screenToWorld(s.view, p.x, p.y);
+    const sc = sceneRef.current;
+    const tol = 3 / s.view.s;
+    const hit = hitPoint(sc.index, w.x, w.y, tol, visibleAccept());
+    if (s.tool === 'measure') {
+      const snap = hit >= 0 ? { x: sc.run.placements.x[hit], y: sc.run.placements.y[hit], part: hit } : { x: w.x, y: w.y, part: -1 };
+      store.addMeasurePoint(snap);
+      return;
+    }
+    if (s.tool === 'note') {
+      extrasRef.current.pendingNote = w;
+      setPendingNote(w);
+      schedule(DIRTY_OVERLAY);
+      return;
+    }
+    if (s.tool === 'align') {
+      alignClick(w);
+      return;
+    }
+    const mode = e.ctrlKey || e.metaKey ? 'toggle' : e.shiftKey ? 'add' : 'replace';
+    if (hit >= 0) {
+      store.selectParts([hit], mode);
+      return;
+    }
+    if (s.layers.findings) {
+      const pad = 6 / s.view.s;
+      const k = sc.findingBoxes.findIndex((b) => w.x >= b.minX - pad && w.x <= b.maxX + pad && w.y >= b.minY - pad && w.y <= b.maxY + pad);
+      if (k >= 0) {
+        store.selectFindings([sc.findings[k].key], mode);
+        return;
+      }
+    }
+    if (mode === 'replace') store.clearSelection();
+  };
+
+  const onPointerUp = (e: React.PointerEvent<HTMLDivElement>) => {
+    const d = drag.current;
+    drag.current = null;
+    if (!d) return;
+    const p = local(e);
+    const s = store.getState();
+    if (!d.moved) {
+      clickAt(p, e);
+      return;
+    }
+    if (d.mode === 'box' && s.view) {
+      extrasRef.current.box = null;
+      const a = screenToWorld(s.view, d.sx, d.sy);
+      const b = screenToWorld(s.view, p.x, p.y);
+      const sc = sceneRef.current;
+      const parts = hitBox(sc.index, { minX: Math.min(a.x, b.x), minY: Math.min(a.y, b.y), maxX: Math.max(a.x, b.x), maxY: Math.max(a.y, b.y) }, sc.run.placements.x, sc.run.placements.y, visibleAccept());
+      store.selectParts(parts, e.ctrlKey || e.metaKey ? 'toggle' : 'add');
+      schedule(DIRTY_OVERLAY);
+    }
+  };
+
+  const onPointerLeave = () => {
+    if (store.getState().hovered !== -1 || store.getState().cursor) store.set({ hovered: -1, cursor: null });
+  };
+
+  // wheel: zoom about the cursor (a native listener: React's wheel listener is passive)
+  useEffect(() => {
+    const el = containerRef.current;
+    if (!el) return;
+    const onWheel = (e: WheelEvent) => {
+      e.preventDefault();
+      const s = store.getState();
+      if (!s.view) return;
+      const r = el.getBoundingClientRect();
+      const dy = e.deltaMode === 1 ? e.deltaY * 16 : e.deltaY;
+      store.set({ view: zoomAbout(s.view, e.clientX - r.left, e.clientY - r.top, Math.exp(-dy * 0.0015)) });
+    };
+    el.addEventListener('wheel', onWheel, { passive: false });
+    return () => el.removeEventListener('wheel', onWheel);
+  }, [store]);
+
+  // ---- underlay alignment: image point, panel point, twice ---------------------------------------
+  const alignClick = (w: { x: number; y: number }) => {
+    const u = underlayRef.current;
+    if (!u) return;
+    const e = extrasRef.current;
+    if (e.alignImage.length === e.alignPanel.length) {
+      const inv = invertAffine(u.transform);
+      e.alignImage.push(applyAffine(inv, w.x, w.y));
+      setAlignStep(`Now click where image point ${e.alignImage.length} belongs on the panel.`);
+    } else {
+      e.alignPanel.push(w);
+      if (e.alignPanel.length >= 2) {
+        try {
+          const f = fitUnderlay(e.alignImage, e.alignPanel);
+          onUnderlayChange?.({ ...u, transform: f.transform, pairs: { image: [...e.alignImage], panel: [...e.alignPanel] } });
+          setAlignError(null);
+          setAlignStep(`Aligned: ${(f.scale * 1000).toFixed(3)} µm per pixel, turned ${f.rotationDeg.toFixed(2)}°.`);
+        } catch (err) {
+          setAlignError((err as Error).message);
+          setAlignStep(null);
+        }
+        e.alignImage = [];
+        e.alignPanel = [];
+        store.setTool('select');
+      } else {
+        setAlignStep('Click a second point on the image, far from the first.');
+      }
+    }
+    schedule(DIRTY_OVERLAY);
+  };
+  const tool = useCanvasState(store, (s) => s.tool);
+  useEffect(() => {
+    if (tool === 'align') {
+      setAlignError(null);
+      setAlignStep('Click a recognisable point on the image (a corner, a fiducial).');
+    } else if (alignStep && !alignStep.startsWith('Aligned')) setAlignStep(null);
+    if (tool !== 'note') {
+      extrasRef.current.pendingNote = null;
+      setPendingNote(null);
+    }
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [tool]);
+
+  // ---- keyboard: our own shortcuts (listed in the help popover) -----------------------------------
+  const [helpOpen, setHelpOpen] = useState(false);
+  const onKeyDown = (e: ReactKeyboardEvent<HTMLDivElement>) => {
+    if (e.target !== containerRef.current) return; // typing in the note editor
+    const s = store.getState();
+    if (!s.view) return;
+    const { width: w, height: h } = sizeRef.current;
+    const step = e.shiftKey ? 200 : 60;
+    let handled = true;
+    switch (e.key) {
+      case 'f': case 'F': fit(); break;
+      case '+': case '=': store.set({ view: zoomAbout(s.view, w / 2, h / 2, 1.5) }); break;
+      case '-': case '_': store.set({ view: zoomAbout(s.view, w / 2, h / 2, 1 / 1.5) }); break;
+      case 'ArrowLeft': store.set({ view: panBy(s.view, step, 0) }); break;
+      case 'ArrowRight': store.set({ view: panBy(s.view, -step, 0) }); break;
+      case 'ArrowUp': store.set({ view: panBy(s.view, 0, step) }); break;
+      case 'ArrowDown': store.set({ view: panBy(s.view, 0, -step) }); break;
+      case 'm': case 'M': store.setTool(s.tool === 'measure' ? 'select' : 'measure'); break;
+      case 'n': case 'N': if (onAddNote) store.setTool(s.tool === 'note' ? 'select' : 'note'); break;
+      case 'Escape':
+        setHelpOpen(false);
+        if (s.tool !== 'select') store.setTool('select');
+        else store.clearSelection();
+        break;
+      case '?': setHelpOpen((o) => !o); break;
+      default: {
+        const n = e.key >= '0' && e.key <= '9' && !e.ctrlKey && !e.metaKey && !e.altKey ? (e.key === '0' ? 9 : Number(e.key) - 1) : -1;
+        if (n >= 0 && n < LAYERS.length) store.toggleLayer(LAYERS[n].id);
+        else handled = false;
+      }
+    }
+    if (handled) e.preventDefault();
+  };
+
+  const submitNote = (text: string) => {
+    const p = extrasRef.current.pendingNote;
+    if (p && text.trim()) onAddNote?.({ side: run.side, x: p.x, y: p.y, text: text.trim() });
+    extrasRef.current.pendingNote = null;
+    setPendingNote(null);
+    schedule(DIRTY_OVERLAY);
+    containerRef.current?.focus();
+  };
+
+  const cursorStyle = tool === 'select' ? (drag.current?.mode === 'pan' ? 'grabbing' : 'default') : 'crosshair';
+  const sideText = run.side === 'top' ? 'Top side, seen from above' : 'Bottom side, seen from below';
+  return (
+    <div className="relative select-none overflow-hidden rounded border border-ink-700" style={{ height, background: CANVAS_COLORS.background }}>
+      <div
+        ref={containerRef}
+        role="application"
+        aria-label={label ?? `Panel canvas: ${sideText}. Press ? for keyboard shortcuts.`}
+        aria-roledescription="panel canvas"
+        tabIndex={0}
+        data-testid="panel-canvas"
+        data-side={run.side}
+        className="absolute inset-0 outline-none focus-visible:ring-2 focus-visible:ring-copper-400"
+        style={{ cursor: cursorStyle, touchAction: 'none' }}
+        onPointerDown={onPointerDown}
+        onPointerMove={onPointerMove}
+        onPointerUp={onPointerUp}
+        onPointerLeave={onPointerLeave}
+        onKeyDown={onKeyDown}
+      >
+        <Stage width={width} height={height} listening={false}>
+          <Layer ref={layerRefs.underlay} listening={false}>
+            <Shape sceneFunc={sceneUnderlay} listening={false} perfectDrawEnabled={false} />
+          </Layer>
+          <Layer ref={layerRefs.base} listening={false}>
+            <Shape sceneFunc={sceneBase} listening={false} perfectDrawEnabled={false} />
+          </Layer>
+          <Layer ref={layerRefs.bodies} listening={false}>
+            <Shape sceneFunc={sceneBodies} listening={false} perfectDrawEnabled={false} />
+          </Layer>
+          <Layer ref={layerRefs.overlay} listening={false}>
+            <Shape sceneFunc={sceneOverlay} listening={false} perfectDrawEnabled={false} />
+          </Layer>
+        </Stage>
+      </div>
+      <SideBadge run={run} />
+      <HelpPopover open={helpOpen} onOpenChange={setHelpOpen} canNote={!!onAddNote} />
+      <HoverCard store={store} scene={scene} pos={hoverXY} />
+      <div className="pointer-events-none absolute bottom-2 left-2 flex items-end gap-3">
+        <ScaleBar store={store} />
+      </div>
+      <CursorReadout store={store} scene={scene} />
+      {pendingNote && <NoteEditor store={store} at={pendingNote} onSubmit={submitNote} onCancel={() => submitNote('')} />}
+      {(alignStep || alignError) && (
+        <div role="status" className={`absolute left-1/2 top-2 -translate-x-1/2 rounded px-3 py-1.5 text-xs shadow ${alignError ? 'bg-sev-error text-white' : 'bg-ink-800 text-ink-50'}`}>
+          {alignError ?? alignStep}
+        </div>
+      )}
+    </div>
+  );
+}
+
+export type { CanvasState };
