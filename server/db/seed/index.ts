@@ -3,6 +3,7 @@ import type { DataSource } from 'typeorm';
 import { User } from '../entities/user.entity';
 import { BCRYPT_COST } from '../../modules/users/user.service';
 import { DEMO_PASSWORD, DEMO_USERS } from './demo-users';
+import { seedStarterLibrary } from './starter-library';
 
 /** Idempotent: creates what is missing, leaves what exists (a changed password stays changed). */
 export async function seedDemo(ds: DataSource, log: (s: string) => void = () => {}): Promise<void> {
@@ -14,4 +15,5 @@ export async function seedDemo(ds: DataSource, log: (s: string) => void = () => 
     await repo.save(repo.create({ ...u, passwordHash: hash, active: true }));
     log(`created demo user ${u.email}`);
   }
+  await seedStarterLibrary(ds, log);
 }
