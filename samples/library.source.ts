@@ -50,7 +50,7 @@ export const library = {
     { name: 'chip-large', method: 'body-outline' },
     { name: 'lead-row', method: 'lead-tips' },
     { name: 'lead-quad', method: 'lead-tips' },
-    { name: 'bottom-pads', method: 'pad-pattern' },
-    { name: 'tall-body', method: 'silhouette' },
+    { name: 'bottom-pads', method: 'corner-edges' },
+    { name: 'tall-body', method: 'body-outline' },
   ],
 };

@@ -22,6 +22,12 @@ import type { Mailer } from './modules/mail/mailer';
 import { UserService } from './modules/users/user.service';
 import { registerUserRoutes } from './modules/users/user.router';
 import { registerLibraryRoutes } from './modules/library/library.router';
+import { getLibraryFile, recordUnmatchedFootprints } from './modules/library/library.service';
+import { CheckPool } from './modules/programs/check-pool';
+import { ProgramService, type LibrarySource } from './modules/programs/program.service';
+import { registerProgramRoutes } from './modules/programs/program.router';
+import { RunFileService } from './modules/programs/run-file.service';
+import { UnauthenticatedError } from './lib/errors';
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 export const APP_VERSION = '0.1.0';
@@ -36,6 +42,9 @@ export interface Services {
   audit: AuditService;
   users: UserService;
   mailer: Mailer;
+  programs: ProgramService;
+  runFiles: RunFileService;
+  checks: CheckPool;
 }
 
 /** Builds the Express app without listening, so supertest can drive it. */
@@ -65,7 +74,12 @@ export function createApp(deps: AppDeps): Express & { locals: { routes: ApiRoute
 
   const audit = new AuditService(ds);
   const users = new UserService(ds, audit);
-  const services: Services = { audit, users, mailer };
+  const publicUrl = (env.PUBLIC_URL ?? `http://localhost:${env.PORT}`).replace(/\/$/, '');
+  const checks = new CheckPool();
+  const library: LibrarySource = { getLibraryFile: (m) => getLibraryFile(m ?? ds.manager), recordUnmatchedFootprints };
+  const programs = new ProgramService(ds, { audit, mailer, users, library, checks, publicUrl });
+  const runFiles = new RunFileService(ds, { audit, mailer, publicUrl });
+  const services: Services = { audit, users, mailer, programs, runFiles, checks };
 
   const PgStore = connectPgSimple(session);
   // The pg Pool TypeORM already holds; sessions live in PostgreSQL so instances stay stateless.
@@ -97,6 +111,18 @@ export function createApp(deps: AppDeps): Express & { locals: { routes: ApiRoute
     getCsrfTokenFromRequest: (req) => req.headers['x-csrf-token'],
   });
 
+  // Line computers: `Authorization: Bearer pwt_…` (read-only; only routes that name `line-token`).
+  app.use('/api', async (req, _res, next) => {
+    const h = req.headers.authorization;
+    if (!h) return next();
+    const m = /^Bearer\s+(\S+)$/i.exec(h);
+    const t = m ? await runFiles.findToken(m[1]) : null;
+    if (!t) return next(new UnauthenticatedError('The API token is not valid or was revoked. Ask an engineer for a new one.'));
+    req.lineToken = { id: t.id, name: t.name };
+    next();
+  });
+  // Images for the canvas underlay are larger than anything else sent as JSON.
+  app.use('/api/revisions/:id/underlay', express.json({ limit: '10mb' }));
   app.use('/api', express.json({ limit: '1mb' }));
   app.use('/api', doubleCsrfProtection);
 
@@ -107,6 +133,7 @@ export function createApp(deps: AppDeps): Express & { locals: { routes: ApiRoute
   registerAuditRoutes(api, audit);
   registerMailRoutes(api, ds);
   registerLibraryRoutes(api, { ds, audit, users, mailer, publicUrl: env.PUBLIC_URL ?? `http://localhost:${env.PORT}` });
+  registerProgramRoutes(api, programs, runFiles);
   app.use('/api', api.router);
   app.use('/api', apiNotFound);
 

@@ -6,9 +6,10 @@ import { ForbiddenError, UnauthenticatedError } from './errors';
  * Who may call a route. Every API route names its access here; there is no default.
  * - `public`: anyone, signed in or not (sign-in, health, CSRF token)
  * - `signed-in`: any active user
- * - a list of roles: users holding at least one of them (admin holds every role's rights)
+ * - a list of roles: users holding at least one of them (admin holds every role's rights);
+ *   `line-token` in the list also lets a line computer's read-only API token through
  */
-export type Access = 'public' | 'signed-in' | readonly Role[];
+export type Access = 'public' | 'signed-in' | readonly (Role | 'line-token')[];
 
 export interface RouteSpec {
   method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
@@ -21,17 +22,21 @@ export function hasAccess(user: Express.User | undefined, access: Access): boole
   if (!user) return false;
   if (access === 'signed-in') return true;
   if (user.roles.includes('admin')) return true;
-  return access.some((r) => user.roles.includes(r));
+  return access.some((r) => r !== 'line-token' && user.roles.includes(r));
 }
+
+const roleNames = (access: Access) => (typeof access === 'string' ? access : access.filter((r) => r !== 'line-token').join(' or '));
 
 export function guard(access: Access): RequestHandler {
   return (req, _res, next) => {
     if (access === 'public') return next();
+    if (req.lineToken) {
+      if (typeof access !== 'string' && access.includes('line-token')) return next();
+      throw new ForbiddenError('An API token may only download released run files.');
+    }
     if (!req.user) throw new UnauthenticatedError();
     if (!hasAccess(req.user, access)) {
-      throw new ForbiddenError(
-        `This needs the ${(access as readonly Role[]).join(' or ')} role; you are signed in as ${req.user.roles.join(', ') || 'no role'}.`,
-      );
+      throw new ForbiddenError(`This needs the ${roleNames(access)} role; you are signed in as ${req.user.roles.join(', ') || 'no role'}.`);
     }
     next();
   };

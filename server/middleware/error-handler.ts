@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { Problem } from '../../shared/schemas/problem.schema';
+import { EngineInputError } from '../../shared/pipeline/errors';
 import { DomainError, NotFoundError } from '../lib/errors';
 
 function problem(status: number, title: string, detail: string, errors: Problem['errors'] = []): Problem {
@@ -19,6 +20,10 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   let body: Problem;
   if (err instanceof DomainError) {
     body = problem(err.status, err.title, err.message, err.errors);
+  } else if (err instanceof EngineInputError) {
+    // The engine names the file, line, column or field: keep each as the error's path.
+    const where = [err.file, err.line !== undefined ? `line ${err.line}` : null, err.column !== undefined ? `column "${err.column}"` : null, err.field ?? null].filter(Boolean).join(', ');
+    body = problem(400, 'Invalid input', where ? `${where}: ${err.detail}` : err.detail, [{ path: where || '(input)', message: err.detail }]);
   } else if (err?.type === 'entity.parse.failed') {
     body = problem(400, 'Malformed JSON', 'The request body is not valid JSON. Check quotes, commas and brackets.');
   } else if (err?.type === 'entity.too.large') {

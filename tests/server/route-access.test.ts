@@ -60,6 +60,34 @@ const EXPECTED: Record<string, Access> = {
   'GET /library/unmatched': 'signed-in',
   'POST /library/unmatched/:id/create-package': ['librarian'],
   'POST /library/unmatched/:id/add-alias': ['librarian'],
+  // Programs, revisions, run files, tokens (issue 7).
+  'GET /programs': ['engineer'],
+  'POST /programs': ['engineer'],
+  'GET /programs/:id': ['engineer'],
+  'POST /programs/:id/revisions': ['engineer'],
+  'GET /revisions/:id': ['engineer'],
+  'POST /revisions/:id/centroid/preview': ['engineer'],
+  'POST /revisions/:id/centroid': ['engineer'],
+  'PUT /revisions/:id/settings': ['engineer'],
+  'PUT /revisions/:id/overrides': ['engineer'],
+  'GET /revisions/:id/run': ['engineer'],
+  'POST /revisions/:id/checks': ['engineer'],
+  'POST /revisions/:id/waivers': ['engineer'],
+  'DELETE /revisions/:id/waivers/:waiverId': ['engineer'],
+  'POST /revisions/:id/submit': ['engineer'],
+  'POST /revisions/:id/approve': ['engineer'],
+  'POST /revisions/:id/reject': ['engineer'],
+  'POST /revisions/:id/withdraw': ['engineer'],
+  'POST /revisions/:id/comments': ['engineer'],
+  'GET /revisions/:id/underlay': ['engineer'],
+  'PUT /revisions/:id/underlay': ['engineer'],
+  'GET /run-files': ['operator', 'engineer'],
+  'GET /run-files/:id/setup-sheet': ['operator', 'engineer'],
+  'GET /run-files/:id/:file': ['operator', 'engineer', 'line-token'],
+  'POST /run-files/:id/problems': ['operator', 'engineer'],
+  'GET /tokens': ['engineer'],
+  'POST /tokens': ['engineer'],
+  'DELETE /tokens/:id': ['engineer'],
 };
 
 const WHO: (Role | 'nobody')[] = ['nobody', 'admin', 'engineer', 'librarian', 'operator'];
@@ -89,7 +117,7 @@ describe('route × role table', () => {
 
   it.each(cases)('%s as %s', async (key, who, access) => {
     const [method, pattern] = key.split(' ');
-    const path = '/api' + pattern.replace(/:id\b/g, '00000000-0000-4000-8000-000000000000');
+    const path = '/api' + pattern.replace(/:(id|waiverId)\b/g, '00000000-0000-4000-8000-000000000000').replace(/:file\b/, 'top.csv');
     let res: request.Response;
     if (who === 'nobody') {
       const a = request.agent(ctx.app);

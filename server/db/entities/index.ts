@@ -18,3 +18,7 @@ import { LibraryUnmatchedFootprint } from './library-unmatched.entity';
 import { LibraryVisionPreset } from './library-vision-preset.entity';
 export { LibraryAlias, LibraryMachine, LibraryNozzle, LibraryPackage, LibraryProposal, LibraryRevision, LibraryUnmatchedFootprint, LibraryVisionPreset };
 (entities as unknown[]).push(LibraryPackage, LibraryAlias, LibraryNozzle, LibraryVisionPreset, LibraryMachine, LibraryRevision, LibraryProposal, LibraryUnmatchedFootprint);
+// Programs, revisions and run files (issue 7).
+import { ApiToken, ProblemReport, Program, ProgramRevision, ReleaseFile, RevisionComment, RevisionWaiver } from './program.entity';
+export { ApiToken, ProblemReport, Program, ProgramRevision, ReleaseFile, RevisionComment, RevisionWaiver };
+(entities as unknown[]).push(Program, ProgramRevision, RevisionWaiver, RevisionComment, ReleaseFile, ApiToken, ProblemReport);

@@ -1,0 +1,595 @@
+import { createHash } from 'node:crypto';
+import { In, type DataSource, type EntityManager } from 'typeorm';
+import type { ImportResult, Side } from '../../../shared/pipeline/types';
+import { runResultToJson, type RunResultJson } from '../../../shared/pipeline/serialize';
+import { writePlacementListCsv, writePlacementListJson } from '../../../shared/placement-list';
+import type { Finding } from '../../../shared/schemas/finding.schema';
+import type { LibraryFile } from '../../../shared/schemas/library-file.schema';
+import {
+  revisionSettingsSchema,
+  type CommentDto,
+  type CreateProgramInput,
+  type Override,
+  type ProgramDto,
+  type ReleaseFileDto,
+  type RevisionDetail,
+  type RevisionSettings,
+  type RevisionSummary,
+  type WaiverDto,
+} from '../../../shared/schemas/program.schema';
+import { Program, ProgramRevision, ReleaseFile, RevisionComment, RevisionWaiver, type RevisionState } from '../../db/entities/program.entity';
+import { User } from '../../db/entities/user.entity';
+import { BadRequestError, ConflictError, ForbiddenError, NotFoundError } from '../../lib/errors';
+import type { AuditActor, AuditService } from '../audit/audit.service';
+import type { Mailer } from '../mail/mailer';
+import type { UserService } from '../users/user.service';
+import type { CheckPool } from './check-pool';
+import { CENTROID_NAME_FALLBACK, importFile, runSide, sidesWithParts, type EngineInput } from './engine';
+
+/** Where programs get the shared package library (the library module provides it). */
+export interface LibrarySource {
+  getLibraryFile(manager?: EntityManager): Promise<LibraryFile | null>;
+  recordUnmatchedFootprints?(manager: EntityManager, programLabel: string, items: { footprint: string; count: number }[]): Promise<void>;
+}
+
+export const UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
+
+const EDITABLE: RevisionState[] = ['draft'];
+
+function nextLabel(label: string): string {
+  // A … Z, then AA, AB, … (as drawing revisions are usually lettered)
+  const chars = label.split('');
+  let i = chars.length - 1;
+  while (i >= 0) {
+    if (chars[i] !== 'Z') {
+      chars[i] = String.fromCharCode(chars[i].charCodeAt(0) + 1);
+      return chars.join('');
+    }
+    chars[i] = 'A';
+    i--;
+  }
+  return 'A' + chars.join('');
+}
+
+function sha256(bytes: Buffer | string): string {
+  return createHash('sha256').update(bytes).digest('hex');
+}
+
+export interface ServiceUser {
+  id: string;
+  email: string;
+  roles: string[];
+}
+
+export class ProgramService {
+  constructor(
+    private readonly ds: DataSource,
+    private readonly deps: { audit: AuditService; mailer: Mailer; users: UserService; library: LibrarySource; checks: CheckPool; publicUrl: string },
+  ) {}
+
+  // ---- reading ------------------------------------------------------------------------------
+
+  private async userRefs(ids: (string | null)[]) {
+    const want = [...new Set(ids.filter((x): x is string => !!x))];
+    const users = want.length ? await this.ds.getRepository(User).findBy({ id: In(want) }) : [];
+    const map = new Map(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
+    return (id: string | null) => (id ? (map.get(id) ?? null) : null);
+  }
+
+  private summary(r: ProgramRevision, ref: (id: string | null) => { id: string; name: string; email: string } | null): RevisionSummary {
+    const imported = r.imported as unknown as ImportResult | null;
+    const s = r.findingsSummary as { errors?: number; warnings?: number } | null;
+    return {
+      id: r.id,
+      programId: r.programId,
+      label: r.label,
+      state: r.state,
+      author: ref(r.authorId),
+      reviewer: ref(r.reviewerId),
+      centroidName: r.centroidName,
+      placements: imported ? imported.placements.filter((p) => !p.dnp).length : 0,
+      checkedAt: r.checkedAt?.toISOString() ?? null,
+      errors: s?.errors ?? null,
+      warnings: s?.warnings ?? null,
+      submittedAt: r.submittedAt?.toISOString() ?? null,
+      releasedAt: r.releasedAt?.toISOString() ?? null,
+      createdAt: r.createdAt.toISOString(),
+      updatedAt: r.updatedAt.toISOString(),
+      version: r.version,
+    };
+  }
+
+  async listPrograms(): Promise<ProgramDto[]> {
+    const programs = await this.ds.getRepository(Program).find({ order: { updatedAt: 'DESC' } });
+    const revisions = programs.length
+      ? await this.ds.getRepository(ProgramRevision).find({ where: { programId: In(programs.map((p) => p.id)) }, order: { createdAt: 'ASC' }, select: { id: true, programId: true, label: true, state: true, authorId: true, reviewerId: true, centroidName: true, checkedAt: true, findingsSummary: true, submittedAt: true, releasedAt: true, createdAt: true, updatedAt: true, version: true, imported: true } })
+      : [];
+    const ref = await this.userRefs([...programs.map((p) => p.ownerId), ...revisions.flatMap((r) => [r.authorId, r.reviewerId])]);
+    return programs.map((p) => this.programDto(p, revisions.filter((r) => r.programId === p.id), ref));
+  }
+
+  private programDto(p: Program, revs: ProgramRevision[], ref: (id: string | null) => { id: string; name: string; email: string } | null): ProgramDto {
+    return {
+      id: p.id,
+      name: p.name,
+      product: p.product,
+      board: p.board,
+      owner: ref(p.ownerId),
+      createdAt: p.createdAt.toISOString(),
+      updatedAt: p.updatedAt.toISOString(),
+      revisions: revs.map((r) => this.summary(r, ref)),
+    };
+  }
+
+  async getProgram(id: string): Promise<ProgramDto> {
+    const p = await this.ds.getRepository(Program).findOneBy({ id });
+    if (!p) throw new NotFoundError('The program');
+    const revs = await this.ds.getRepository(ProgramRevision).find({ where: { programId: id }, order: { createdAt: 'ASC' } });
+    const ref = await this.userRefs([p.ownerId, ...revs.flatMap((r) => [r.authorId, r.reviewerId])]);
+    return this.programDto(p, revs, ref);
+  }
+
+  async getRevisionEntity(id: string, manager?: EntityManager, lock = false): Promise<ProgramRevision> {
+    const repo = (manager ?? this.ds.manager).getRepository(ProgramRevision);
+    const r = await repo.findOne({ where: { id }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
+    if (!r) throw new NotFoundError('The revision');
+    return r;
+  }
+
+  async getRevision(id: string, user: ServiceUser): Promise<RevisionDetail> {
+    const r = await this.getRevisionEntity(id);
+    const program = await this.ds.getRepository(Program).findOneByOrFail({ id: r.programId });
+    const [waivers, comments, files] = await Promise.all([
+      this.ds.getRepository(RevisionWaiver).find({ where: { revisionId: id }, order: { at: 'ASC' } }),
+      this.ds.getRepository(RevisionComment).find({ where: { revisionId: id }, order: { at: 'ASC' } }),
+      this.ds.getRepository(ReleaseFile).find({ where: { revisionId: id }, order: { side: 'DESC', format: 'ASC' }, select: { id: true, side: true, format: true, sha256: true, placements: true, revisionId: true } }),
+    ]);
+    const sizes: { id: string; n: number }[] = files.length ? await this.ds.query(`SELECT id, octet_length(bytes) AS n FROM release_files WHERE revision_id = $1`, [id]) : [];
+    const ref = await this.userRefs([r.authorId, r.reviewerId]);
+    const imported = r.imported as unknown as ImportResult | null;
+    const isEngineer = user.roles.includes('engineer') || user.roles.includes('admin');
+    const openRevision = await this.ds.getRepository(ProgramRevision).exists({ where: { programId: r.programId, state: In(['draft', 'in-review']) } });
+    return {
+      ...this.summary(r, ref),
+      program: { id: program.id, name: program.name, product: program.product, board: program.board },
+      settings: revisionSettingsSchema.parse(r.settings),
+      centroidSha256: r.centroidSha256,
+      imported: imported
+        ? {
+            rows: imported.placements.length,
+            dnp: imported.placements.filter((p) => p.dnp).length,
+            top: imported.placements.filter((p) => !p.dnp && p.side === 'top').length,
+            bottom: imported.placements.filter((p) => !p.dnp && p.side === 'bottom').length,
+            units: imported.units,
+            columns: imported.columns as Record<string, string>,
+            headers: imported.headers,
+            dialect: imported.dialect as unknown as Record<string, unknown>,
+            warnings: imported.warnings.map((w) => ({ line: w.line, message: w.message })),
+          }
+        : null,
+      overrides: r.overrides as Record<string, Override>,
+      findings: (r.findings as Finding[] | null) ?? null,
+      findingsSummary: (r.findingsSummary as RevisionDetail['findingsSummary']) ?? null,
+      waivers: waivers.map(waiverDto),
+      comments: comments.map(commentDto),
+      releaseFiles: files.map((f) => releaseFileDto(f, sizes.find((s) => s.id === f.id)?.n ?? 0)),
+      reviewComment: r.reviewComment,
+      reviewedAt: r.reviewedAt?.toISOString() ?? null,
+      hasUnderlay: r.underlay !== null,
+      can: {
+        edit: isEngineer && r.state === 'draft',
+        submit: isEngineer && r.state === 'draft',
+        review: isEngineer && r.state === 'in-review' && r.authorId !== user.id,
+        withdraw: isEngineer && (r.state === 'draft' || r.state === 'in-review'),
+        newRevision: isEngineer && r.state === 'released' && !openRevision,
+      },
+    };
+  }
+
+  // ---- writing ------------------------------------------------------------------------------
+
+  private assertEditable(r: ProgramRevision, what = 'changed') {
+    if (r.state === 'released' || r.state === 'superseded') {
+      throw new ConflictError(`Revision ${r.label} is ${r.state} and cannot be ${what}. Start a new revision from it to make changes.`);
+    }
+    if (!EDITABLE.includes(r.state)) {
+      throw new ConflictError(`Revision ${r.label} is ${r.state === 'in-review' ? 'in review' : r.state}; only a draft can be ${what}.`);
+    }
+  }
+
+  private assertVersion(r: ProgramRevision, version: number) {
+    if (r.version !== version) {
+      throw new ConflictError(`Revision ${r.label} was changed by someone else since you opened it (version ${version}, now ${r.version}). Reload to see their change, then make yours again.`);
+    }
+  }
+
+  async createProgram(input: CreateProgramInput, user: ServiceUser, ip: string | null): Promise<ProgramDto> {
+    const id = await this.ds.transaction(async (m) => {
+      const exists = await m.getRepository(Program).createQueryBuilder('p').where('lower(p.name) = lower(:n)', { n: input.name }).getExists();
+      if (exists) throw new ConflictError(`A program named ${input.name} already exists.`, [{ path: 'name', message: 'Already in use' }]);
+      const p = await m.getRepository(Program).save(m.getRepository(Program).create({ ...input, ownerId: user.id }));
+      await m.getRepository(ProgramRevision).save(
+        m.getRepository(ProgramRevision).create({ programId: p.id, label: 'A', state: 'draft', authorId: user.id, settings: revisionSettingsSchema.parse({}) as never, overrides: {} }),
+      );
+      await this.deps.audit.record(user, 'program.create', input.name, { product: input.product, board: input.board }, ip, m);
+      return p.id;
+    });
+    return this.getProgram(id);
+  }
+
+  async newRevision(programId: string, user: ServiceUser, ip: string | null): Promise<RevisionSummary> {
+    return this.ds.transaction(async (m) => {
+      const repo = m.getRepository(ProgramRevision);
+      const program = await m.getRepository(Program).findOne({ where: { id: programId }, lock: { mode: 'pessimistic_write' } });
+      if (!program) throw new NotFoundError('The program');
+      const revs = await repo.find({ where: { programId }, order: { createdAt: 'ASC' } });
+      const open = revs.find((r) => r.state === 'draft' || r.state === 'in-review');
+      if (open) throw new ConflictError(`Revision ${open.label} is still ${open.state === 'draft' ? 'a draft' : 'in review'}; finish or withdraw it first.`);
+      const source = [...revs].reverse().find((r) => r.state === 'released');
+      if (!source) throw new ConflictError('There is no released revision to start from.');
+      const label = nextLabel(revs[revs.length - 1].label);
+      const r = await repo.save(
+        repo.create({
+          programId,
+          label,
+          state: 'draft',
+          authorId: user.id,
+          settings: source.settings,
+          centroidName: source.centroidName,
+          centroidBytes: source.centroidBytes,
+          centroidSha256: source.centroidSha256,
+          imported: source.imported,
+          overrides: source.overrides,
+          underlay: source.underlay,
+        }),
+      );
+      await this.deps.audit.record(user, 'revision.create', `${program.name} ${label}`, { from: source.label }, ip, m);
+      const ref = await this.userRefs([r.authorId]);
+      return this.summary(r, ref);
+    });
+  }
+
+  /** Reads a file without saving: what the import would give (dialect, mapping, first rows, errors). */
+  previewImport(bytes: Buffer, fileName: string, importOptions: RevisionSettings['import']) {
+    const text = decodeText(bytes, fileName);
+    const imported = importFile(text, { import: importOptions }, fileName);
+    return {
+      fileName,
+      bytes: bytes.length,
+      sha256: sha256(bytes),
+      units: imported.units,
+      dialect: imported.dialect,
+      headers: imported.headers,
+      columns: imported.columns,
+      warnings: imported.warnings,
+      rows: imported.placements.length,
+      first: imported.placements.slice(0, 50),
+    };
+  }
+
+  /** Stores the file and its placements in one transaction; a bad file changes nothing. */
+  async commitImport(revisionId: string, bytes: Buffer, fileName: string, importOptions: RevisionSettings['import'], version: number, user: ServiceUser, ip: string | null) {
+    const text = decodeText(bytes, fileName);
+    const imported = importFile(text, { import: importOptions }, fileName);
+    const library = await this.deps.library.getLibraryFile();
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      this.assertEditable(r, 'given a new centroid file');
+      this.assertVersion(r, version);
+      const settings = revisionSettingsSchema.parse({ ...r.settings, import: importOptions });
+      r.settings = settings as never;
+      r.centroidName = fileName;
+      r.centroidBytes = bytes;
+      r.centroidSha256 = sha256(bytes);
+      r.imported = imported as never;
+      r.findings = null;
+      r.findingsSummary = null;
+      r.checkedAt = null;
+      // Overrides of parts no longer in the file are dropped.
+      const refs = new Set(imported.placements.map((p) => p.ref));
+      r.overrides = Object.fromEntries(Object.entries(r.overrides).filter(([ref]) => refs.has(ref)));
+      await m.getRepository(ProgramRevision).save(r);
+      const program = await m.getRepository(Program).findOneByOrFail({ id: r.programId });
+      if (this.deps.library.recordUnmatchedFootprints && library) {
+        const unmatched = unmatchedFootprints(imported, library);
+        if (unmatched.length) await this.deps.library.recordUnmatchedFootprints(m, `${program.name} ${r.label}`, unmatched);
+      }
+      await this.deps.audit.record(user, 'revision.import', `${program.name} ${r.label}`, { file: fileName, rows: imported.placements.length, sha256: r.centroidSha256 }, ip, m);
+    });
+  }
+
+  async updateSettings(revisionId: string, settings: RevisionSettings, version: number, user: ServiceUser, ip: string | null) {
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      this.assertEditable(r);
+      this.assertVersion(r, version);
+      const importChanged = JSON.stringify(settings.import) !== JSON.stringify((r.settings as RevisionSettings).import ?? {});
+      if (importChanged && r.centroidBytes) {
+        // New import options re-read the stored file; a file the options cannot read is an error.
+        r.imported = importFile(decodeText(r.centroidBytes, r.centroidName ?? CENTROID_NAME_FALLBACK), { import: settings.import }, r.centroidName ?? CENTROID_NAME_FALLBACK) as never;
+      }
+      r.settings = settings as never;
+      r.findings = null;
+      r.findingsSummary = null;
+      r.checkedAt = null;
+      await m.getRepository(ProgramRevision).save(r);
+      await this.deps.audit.record(user, 'revision.settings', await this.label(r, m), {}, ip, m);
+    });
+  }
+
+  async updateOverrides(revisionId: string, overrides: Record<string, Override>, version: number, user: ServiceUser, ip: string | null) {
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      this.assertEditable(r);
+      this.assertVersion(r, version);
+      const imported = r.imported as unknown as ImportResult | null;
+      if (!imported) throw new BadRequestError('Import a centroid file before overriding parts.');
+      const refs = new Set(imported.placements.map((p) => p.ref));
+      const unknown = Object.keys(overrides).filter((k) => !refs.has(k));
+      if (unknown.length) throw new BadRequestError(`No part ${unknown.join(', ')} in the imported file.`, unknown.map((k) => ({ path: `overrides.${k}`, message: 'No such reference' })));
+      r.overrides = overrides;
+      r.findings = null;
+      r.findingsSummary = null;
+      r.checkedAt = null;
+      await m.getRepository(ProgramRevision).save(r);
+      await this.deps.audit.record(user, 'revision.overrides', await this.label(r, m), { parts: Object.keys(overrides) }, ip, m);
+    });
+  }
+
+  private async label(r: ProgramRevision, m?: EntityManager) {
+    const p = await (m ?? this.ds.manager).getRepository(Program).findOneByOrFail({ id: r.programId });
+    return `${p.name} ${r.label}`;
+  }
+
+  private async engineInput(r: ProgramRevision, manager?: EntityManager): Promise<EngineInput> {
+    const imported = r.imported as unknown as ImportResult | null;
+    if (!imported) throw new BadRequestError('No centroid file yet: import one in the Import stage.');
+    const program = await (manager ?? this.ds.manager).getRepository(Program).findOneByOrFail({ id: r.programId });
+    return {
+      settings: revisionSettingsSchema.parse(r.settings),
+      imported,
+      overrides: r.overrides as Record<string, Override>,
+      library: await this.deps.library.getLibraryFile(manager),
+      program: program.name,
+      revision: r.label,
+      centroidName: r.centroidName ?? CENTROID_NAME_FALLBACK,
+    };
+  }
+
+  /** One side of the panel as the engine computes it now (not stored: it is quick). */
+  async run(revisionId: string, side: Side): Promise<RunResultJson> {
+    const r = await this.getRevisionEntity(revisionId);
+    return runResultToJson(runSide(await this.engineInput(r), side));
+  }
+
+  /** Runs the checks in a worker thread, stores the findings with the revision. */
+  async check(revisionId: string, user: ServiceUser, ip: string | null) {
+    const r0 = await this.getRevisionEntity(revisionId);
+    this.assertEditable(r0, 'checked again');
+    const input = await this.engineInput(r0);
+    const result = await this.deps.checks.run(input);
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      this.assertEditable(r, 'checked again');
+      if (r.version !== r0.version) throw new ConflictError('The revision changed while it was being checked; run the checks again.');
+      r.findings = result.findings as never;
+      r.findingsSummary = result.summary as never;
+      r.checkedAt = new Date();
+      await m.getRepository(ProgramRevision).save(r);
+      await this.deps.audit.record(user, 'revision.check', await this.label(r, m), { errors: result.summary.errors, warnings: result.summary.warnings }, ip, m);
+    });
+  }
+
+  async waive(revisionId: string, key: string, reason: string, user: ServiceUser, ip: string | null): Promise<WaiverDto> {
+    return this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      this.assertEditable(r, 'given waivers');
+      const finding = ((r.findings as Finding[] | null) ?? []).find((f) => f.key === key);
+      if (!finding) throw new NotFoundError('That finding (run the checks again: it may be fixed)');
+      const repo = m.getRepository(RevisionWaiver);
+      if (await repo.existsBy({ revisionId, findingKey: key })) throw new ConflictError('This finding is already waived.');
+      const w = await repo.save(repo.create({ revisionId, findingKey: key, kind: finding.kind, reason, userId: user.id, userEmail: user.email }));
+      await this.deps.audit.record(user, 'finding.waive', await this.label(r, m), { key, reason }, ip, m);
+      return waiverDto(w);
+    });
+  }
+
+  async unwaive(revisionId: string, waiverId: string, user: ServiceUser, ip: string | null) {
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      this.assertEditable(r, 'changed');
+      const w = await m.getRepository(RevisionWaiver).findOneBy({ id: waiverId, revisionId });
+      if (!w) throw new NotFoundError('The waiver');
+      await m.getRepository(RevisionWaiver).delete({ id: w.id });
+      await this.deps.audit.record(user, 'finding.unwaive', await this.label(r, m), { key: w.findingKey }, ip, m);
+    });
+  }
+
+  private async blockingFindings(revisionId: string, findings: Finding[], m: EntityManager): Promise<Finding[]> {
+    const waived = new Set((await m.getRepository(RevisionWaiver).findBy({ revisionId })).map((w) => w.findingKey));
+    return findings.filter((f) => f.severity === 'error' && !waived.has(f.key));
+  }
+
+  async submit(revisionId: string, user: ServiceUser, ip: string | null) {
+    let programLabel = '';
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      this.assertEditable(r, 'submitted');
+      if (!r.imported) throw new BadRequestError('Import a centroid file first.');
+      if (!r.checkedAt || !r.findings) throw new BadRequestError('Run the checks (Verify stage) before submitting: the inputs changed since the last check.');
+      const blocking = await this.blockingFindings(r.id, r.findings as Finding[], m);
+      if (blocking.length) throw new ConflictError(`${blocking.length} error finding${blocking.length === 1 ? '' : 's'} neither fixed nor waived, e.g. ${blocking[0].message}. Fix or waive them in the Verify stage.`);
+      r.state = 'in-review';
+      r.submittedAt = new Date();
+      r.reviewComment = null;
+      await m.getRepository(ProgramRevision).save(r);
+      programLabel = await this.label(r, m);
+      await this.deps.audit.record(user, 'revision.submit', programLabel, {}, ip, m);
+    });
+    const engineers = (await this.deps.users.emailsWithRole('engineer')).filter((e) => e !== user.email);
+    await this.deps.mailer.sendQuietly({
+      to: engineers,
+      subject: `Review requested: ${programLabel}`,
+      text: `${user.email} asks for a review of ${programLabel}.\n\nOpen it: ${this.deps.publicUrl}/programs/revisions/${revisionId}/release\n\nA reviewer must not be the author. Look at the panel drawing and the findings before you approve.`,
+    });
+  }
+
+  async approve(revisionId: string, comment: string, user: ServiceUser, ip: string | null) {
+    const r0 = await this.getRevisionEntity(revisionId);
+    if (r0.state !== 'in-review') throw new ConflictError(`Revision ${r0.label} is not in review (it is ${r0.state}).`);
+    if (r0.authorId === user.id) throw new ForbiddenError('You are the author of this revision: another engineer must review and release it.');
+    const input = await this.engineInput(r0);
+    // Re-check with today's library: the list released is the list checked.
+    const result = await this.deps.checks.run(input);
+    const runs = sidesWithParts(input.imported).map((s) => runSide(input, s));
+    const generated = new Date().toISOString().replace(/\.\d{3}Z$/, 'Z');
+    const files: { side: Side; format: 'csv' | 'json'; text: string; sha256: string; placements: number }[] = [];
+    for (const run of runs) {
+      if (run.placements.count === 0 && run.side === 'bottom') continue;
+      const unmatched = run.placements.packageName.filter((p) => p === null).length;
+      if (unmatched) throw new ConflictError(`${unmatched} placement${unmatched === 1 ? ' has' : 's have'} no package on the ${run.side} side; the list is not releasable. Add the packages or aliases to the library, or override the parts.`);
+      const csv = await writePlacementListCsv(run, { generated });
+      const json = await writePlacementListJson(run, { generated });
+      files.push({ side: run.side, format: 'csv', text: csv.text, sha256: csv.sha256, placements: run.placements.count });
+      files.push({ side: run.side, format: 'json', text: json.text, sha256: json.sha256, placements: run.placements.count });
+    }
+    let programLabel = '';
+    let authorEmail: string | null = null;
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      if (r.state !== 'in-review' || r.version !== r0.version) throw new ConflictError('The revision changed while it was being released; reload and review it again.');
+      const blocking = await this.blockingFindings(r.id, result.findings, m);
+      r.findings = result.findings as never;
+      r.findingsSummary = result.summary as never;
+      r.checkedAt = new Date();
+      if (blocking.length) {
+        await m.getRepository(ProgramRevision).save(r);
+        throw new ConflictError(`Re-checking found ${blocking.length} error finding${blocking.length === 1 ? '' : 's'} neither fixed nor waived (the library may have changed), e.g. ${blocking[0].message}. Reject it back to the author.`);
+      }
+      await m.getRepository(ProgramRevision).update({ programId: r.programId, state: 'released' }, { state: 'superseded' });
+      for (const f of files) {
+        await m.getRepository(ReleaseFile).insert({ revisionId: r.id, side: f.side, format: f.format, bytes: Buffer.from(f.text, 'utf8'), sha256: f.sha256, placements: f.placements });
+      }
+      r.state = 'released';
+      r.reviewerId = user.id;
+      r.reviewedAt = new Date();
+      r.releasedAt = new Date();
+      r.reviewComment = comment || null;
+      await m.getRepository(ProgramRevision).save(r);
+      programLabel = await this.label(r, m);
+      authorEmail = (await m.getRepository(User).findOneBy({ id: r.authorId }))?.email ?? null;
+      await this.deps.audit.record(user, 'revision.release', programLabel, { files: files.map((f) => ({ side: f.side, format: f.format, sha256: f.sha256 })) }, ip, m);
+    });
+    const operators = await this.deps.users.emailsWithRole('operator');
+    const sums = files.filter((f) => f.format === 'csv').map((f) => `  ${f.side}: ${f.placements} placements, SHA-256 ${f.sha256}`).join('\n');
+    await this.deps.mailer.sendQuietly({
+      to: operators,
+      subject: `Released: ${programLabel}`,
+      text: `${programLabel} was released by ${user.email}.\n\n${sums}\n\nRun files and the set-up sheet: ${this.deps.publicUrl}/run-files\n\nCheck the checksum on the machine's computer before loading, and follow the machine maker's safety instructions.`,
+    });
+    if (authorEmail) await this.deps.mailer.sendQuietly({ to: [authorEmail], subject: `Released: ${programLabel}`, text: `${user.email} approved and released ${programLabel}.${comment ? `\n\nComment:\n${comment}` : ''}` });
+  }
+
+  async reject(revisionId: string, comment: string, user: ServiceUser, ip: string | null) {
+    let programLabel = '';
+    let authorEmail: string | null = null;
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      if (r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is not in review (it is ${r.state}).`);
+      if (r.authorId === user.id) throw new ForbiddenError('You are the author of this revision: another engineer reviews it. To change it yourself, withdraw and start again.');
+      r.state = 'draft';
+      r.reviewerId = user.id;
+      r.reviewedAt = new Date();
+      r.reviewComment = comment;
+      await m.getRepository(ProgramRevision).save(r);
+      programLabel = await this.label(r, m);
+      authorEmail = (await m.getRepository(User).findOneBy({ id: r.authorId }))?.email ?? null;
+      await this.deps.audit.record(user, 'revision.reject', programLabel, { comment }, ip, m);
+    });
+    if (authorEmail) {
+      await this.deps.mailer.sendQuietly({
+        to: [authorEmail],
+        subject: `Changes requested: ${programLabel}`,
+        text: `${user.email} sent ${programLabel} back to draft.\n\nComment:\n${comment}\n\nOpen it: ${this.deps.publicUrl}/programs/revisions/${revisionId}`,
+      });
+    }
+  }
+
+  async withdraw(revisionId: string, user: ServiceUser, ip: string | null) {
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      if (r.state !== 'draft' && r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is ${r.state}; only a draft or a revision in review can be withdrawn.`);
+      r.state = 'withdrawn';
+      await m.getRepository(ProgramRevision).save(r);
+      await this.deps.audit.record(user, 'revision.withdraw', await this.label(r, m), {}, ip, m);
+    });
+  }
+
+  async addComment(revisionId: string, input: { side: Side; kind: 'comment' | 'checked'; x: number | null; y: number | null; findingKey: string | null; text: string }, user: ServiceUser, ip: string | null): Promise<CommentDto> {
+    return this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      if (r.state !== 'draft' && r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is ${r.state}: review notes are closed.`);
+      const c = await m.getRepository(RevisionComment).save(m.getRepository(RevisionComment).create({ revisionId, ...input, userId: user.id, userEmail: user.email }));
+      await this.deps.audit.record(user, input.kind === 'checked' ? 'review.checked' : 'review.comment', await this.label(r, m), { text: input.text.slice(0, 200) }, ip, m);
+      return commentDto(c);
+    });
+  }
+
+  async setUnderlay(revisionId: string, underlay: Record<string, unknown> | null, user: ServiceUser, ip: string | null) {
+    await this.ds.transaction(async (m) => {
+      const r = await this.getRevisionEntity(revisionId, m, true);
+      this.assertEditable(r, 'given an underlay');
+      r.underlay = underlay;
+      await m.getRepository(ProgramRevision).save(r);
+      await this.deps.audit.record(user, 'revision.underlay', await this.label(r, m), { set: underlay !== null }, ip, m);
+    });
+  }
+
+  async getUnderlay(revisionId: string) {
+    const r = await this.getRevisionEntity(revisionId);
+    return r.underlay;
+  }
+}
+
+/** Centroid files are text: UTF-8 (a BOM is fine) or Latin-1 as older CAD tools write. */
+export function decodeText(bytes: Buffer, fileName: string): string {
+  if (bytes.length === 0) throw new BadRequestError(`${fileName} is empty.`, [{ path: 'file', message: 'Empty file' }]);
+  const probe = bytes.subarray(0, 65536);
+  if (probe.includes(0)) throw new BadRequestError(`${fileName} is not a text file (it holds binary data). Export the centroid file as CSV or text.`, [{ path: 'file', message: 'Not a text file' }]);
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    return new TextDecoder('latin1').decode(bytes);
+  }
+}
+
+function unmatchedFootprints(imported: ImportResult, library: LibraryFile): { footprint: string; count: number }[] {
+  const names = new Set<string>();
+  const exact = new Set(library.packages.flatMap((p) => [p.name.toLowerCase(), ...(p.aliases ?? []).filter((a) => !/[*?]/.test(a)).map((a) => a.toLowerCase())]));
+  const patterns = library.packages.flatMap((p) => (p.aliases ?? []).filter((a) => /[*?]/.test(a))).map((a) => new RegExp('^' + a.replace(/[.+^${}()|[\]\\]/g, '\\$&').replace(/\*/g, '.*').replace(/\?/g, '.') + '$', 'i'));
+  const counts = new Map<string, number>();
+  for (const p of imported.placements) {
+    if (p.dnp) continue;
+    const f = p.footprint;
+    const key = f.toLowerCase();
+    if (exact.has(key) || names.has(key)) continue;
+    if (patterns.some((re) => re.test(f))) {
+      names.add(key);
+      continue;
+    }
+    counts.set(f, (counts.get(f) ?? 0) + 1);
+  }
+  return [...counts].map(([footprint, count]) => ({ footprint, count }));
+}
+
+export function waiverDto(w: RevisionWaiver): WaiverDto {
+  return { id: w.id, findingKey: w.findingKey, kind: w.kind, reason: w.reason, userEmail: w.userEmail, at: w.at.toISOString() };
+}
+
+export function commentDto(c: RevisionComment): CommentDto {
+  return { id: c.id, side: c.side as Side, kind: c.kind as 'comment' | 'checked', x: c.x, y: c.y, findingKey: c.findingKey, text: c.text, userEmail: c.userEmail, at: c.at.toISOString() };
+}
+
+export function releaseFileDto(f: Pick<ReleaseFile, 'revisionId' | 'side' | 'format' | 'sha256' | 'placements'>, bytes: number): ReleaseFileDto {
+  return { side: f.side as Side, format: f.format as 'csv' | 'json', sha256: f.sha256, placements: f.placements, bytes, url: `/api/run-files/${f.revisionId}/${f.side}.${f.format}` };
+}

@@ -1,0 +1,233 @@
+import { z } from 'zod';
+import { findingSchema, findingsSummarySchema } from './finding.schema';
+import { boardOutlineSchema, fiducialSchema, importOptionsSchema, limitsSchema, machineSchema, panelSchema } from './job.schema';
+
+export const REVISION_STATES = ['draft', 'in-review', 'released', 'superseded', 'withdrawn'] as const;
+export const revisionStateSchema = z.enum(REVISION_STATES);
+export type RevisionStateName = z.infer<typeof revisionStateSchema>;
+
+export const REVISION_STATE_LABELS: Record<RevisionStateName, string> = {
+  draft: 'Draft',
+  'in-review': 'In review',
+  released: 'Released',
+  superseded: 'Superseded',
+  withdrawn: 'Withdrawn',
+};
+
+export const programNameSchema = z
+  .string()
+  .trim()
+  .min(2, 'At least 2 characters')
+  .max(80, 'At most 80 characters')
+  .regex(/^[A-Za-z0-9][A-Za-z0-9._ -]*$/, 'Letters, digits, spaces, dot, dash and underscore; start with a letter or digit');
+
+export const createProgramInputSchema = z.object({
+  name: programNameSchema,
+  product: z.string().trim().min(1, 'Name the product').max(120, 'At most 120 characters'),
+  board: z.string().trim().min(1, 'Name the board and its design revision').max(120, 'At most 120 characters'),
+});
+export type CreateProgramInput = z.infer<typeof createProgramInputSchema>;
+
+/**
+ * A revision's job settings: the job file of CLI.md without the file names. Board and panel may
+ * be missing while the engineer works through the stages; running needs both.
+ */
+export const revisionSettingsSchema = z.strictObject({
+  import: importOptionsSchema.default({}),
+  board: boardOutlineSchema.optional(),
+  panel: panelSchema.optional(),
+  fiducials: z.array(fiducialSchema).default([]),
+  transform: z.enum(['auto', 'translation', 'rigid', 'similarity', 'affine']).default('auto'),
+  limits: limitsSchema.default({ residual: 0.05, scalePpm: 1000, rotationDeg: 2 }),
+  machine: machineSchema.optional(),
+});
+export type RevisionSettings = z.output<typeof revisionSettingsSchema>;
+export type RevisionSettingsInput = z.input<typeof revisionSettingsSchema>;
+
+export const updateSettingsInputSchema = z.object({
+  settings: revisionSettingsSchema,
+  version: z.number().int().min(1),
+});
+
+export const overrideSchema = z.strictObject({
+  package: z.string().trim().min(1).max(120).optional(),
+  nozzle: z.string().trim().min(1).max(60).optional(),
+  vision: z.string().trim().min(1).max(60).optional(),
+  reason: z.string().trim().min(3, 'Say why (at least 3 characters)').max(500),
+});
+export type Override = z.infer<typeof overrideSchema>;
+
+export const updateOverridesInputSchema = z.object({
+  overrides: z.record(z.string().min(1).max(64), overrideSchema),
+  version: z.number().int().min(1),
+});
+
+export const waiveInputSchema = z.object({
+  key: z.string().min(1).max(500),
+  reason: z.string().trim().min(5, 'Say why this finding is acceptable (at least 5 characters)').max(1000),
+});
+
+export const reviewDecisionInputSchema = z.object({
+  comment: z.string().trim().max(4000).default(''),
+});
+
+export const rejectInputSchema = z.object({
+  comment: z.string().trim().min(3, 'Tell the author what to change').max(4000),
+});
+
+export const commentInputSchema = z.object({
+  side: z.enum(['top', 'bottom']),
+  kind: z.enum(['comment', 'checked']).default('comment'),
+  x: z.number().finite().nullable().default(null),
+  y: z.number().finite().nullable().default(null),
+  findingKey: z.string().max(500).nullable().default(null),
+  text: z.string().trim().min(1, 'Write something').max(4000),
+});
+
+export const underlayInputSchema = z.object({
+  underlay: z
+    .object({
+      dataUrl: z.string().regex(/^data:image\/(png|jpeg|webp);base64,/, 'A PNG, JPEG or WebP image').max(8_000_000, 'Images up to about 6 MB'),
+      matrix: z.tuple([z.tuple([z.number(), z.number(), z.number()]), z.tuple([z.number(), z.number(), z.number()])]),
+      opacity: z.number().min(0).max(1),
+      side: z.enum(['top', 'bottom']).default('top'),
+    })
+    .nullable(),
+});
+
+export const problemReportInputSchema = z.object({
+  text: z.string().trim().min(10, 'Describe the problem (at least 10 characters)').max(4000),
+});
+
+export const createTokenInputSchema = z.object({
+  name: z.string().trim().min(2, 'Name the computer or script that will use it').max(80),
+});
+
+export const sideQuerySchema = z.object({ side: z.enum(['top', 'bottom']).default('top') });
+
+// ---- responses -------------------------------------------------------------------------------
+
+export const userRefSchema = z.object({ id: z.string(), name: z.string(), email: z.string() }).nullable();
+
+export const revisionSummarySchema = z.object({
+  id: z.string(),
+  programId: z.string(),
+  label: z.string(),
+  state: revisionStateSchema,
+  author: userRefSchema,
+  reviewer: userRefSchema,
+  centroidName: z.string().nullable(),
+  placements: z.number().int(),
+  checkedAt: z.string().nullable(),
+  errors: z.number().int().nullable(),
+  warnings: z.number().int().nullable(),
+  submittedAt: z.string().nullable(),
+  releasedAt: z.string().nullable(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+  version: z.number().int(),
+});
+export type RevisionSummary = z.infer<typeof revisionSummarySchema>;
+
+export const programSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  product: z.string(),
+  board: z.string(),
+  owner: userRefSchema,
+  createdAt: z.string(),
+  updatedAt: z.string(),
+  revisions: z.array(revisionSummarySchema),
+});
+export type ProgramDto = z.infer<typeof programSchema>;
+
+export const waiverSchema = z.object({
+  id: z.string(),
+  findingKey: z.string(),
+  kind: z.string(),
+  reason: z.string(),
+  userEmail: z.string(),
+  at: z.string(),
+});
+export type WaiverDto = z.infer<typeof waiverSchema>;
+
+export const commentSchema = z.object({
+  id: z.string(),
+  side: z.enum(['top', 'bottom']),
+  kind: z.enum(['comment', 'checked']),
+  x: z.number().nullable(),
+  y: z.number().nullable(),
+  findingKey: z.string().nullable(),
+  text: z.string(),
+  userEmail: z.string(),
+  at: z.string(),
+});
+export type CommentDto = z.infer<typeof commentSchema>;
+
+export const releaseFileSchema = z.object({
+  side: z.enum(['top', 'bottom']),
+  format: z.enum(['csv', 'json']),
+  sha256: z.string(),
+  placements: z.number().int(),
+  bytes: z.number().int(),
+  url: z.string(),
+});
+export type ReleaseFileDto = z.infer<typeof releaseFileSchema>;
+
+export const revisionDetailSchema = revisionSummarySchema.extend({
+  program: z.object({ id: z.string(), name: z.string(), product: z.string(), board: z.string() }),
+  settings: revisionSettingsSchema,
+  centroidSha256: z.string().nullable(),
+  imported: z
+    .object({
+      rows: z.number().int(),
+      dnp: z.number().int(),
+      top: z.number().int(),
+      bottom: z.number().int(),
+      units: z.string(),
+      columns: z.record(z.string(), z.string()),
+      headers: z.array(z.string()),
+      dialect: z.record(z.string(), z.unknown()),
+      warnings: z.array(z.object({ line: z.number().nullable(), message: z.string() })),
+    })
+    .nullable(),
+  overrides: z.record(z.string(), overrideSchema),
+  findings: z.array(findingSchema).nullable(),
+  findingsSummary: findingsSummarySchema.nullable(),
+  waivers: z.array(waiverSchema),
+  comments: z.array(commentSchema),
+  releaseFiles: z.array(releaseFileSchema),
+  reviewComment: z.string().nullable(),
+  reviewedAt: z.string().nullable(),
+  hasUnderlay: z.boolean(),
+  /** what the signed-in user may do now */
+  can: z.object({ edit: z.boolean(), submit: z.boolean(), review: z.boolean(), withdraw: z.boolean(), newRevision: z.boolean() }),
+});
+export type RevisionDetail = z.infer<typeof revisionDetailSchema>;
+
+export const runFileSchema = z.object({
+  revisionId: z.string(),
+  programId: z.string(),
+  programName: z.string(),
+  product: z.string(),
+  board: z.string(),
+  label: z.string(),
+  state: z.enum(['released', 'superseded']),
+  releasedAt: z.string().nullable(),
+  author: userRefSchema,
+  reviewer: userRefSchema,
+  files: z.array(releaseFileSchema),
+});
+export type RunFileDto = z.infer<typeof runFileSchema>;
+
+export const apiTokenSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  prefix: z.string(),
+  createdAt: z.string(),
+  lastUsedAt: z.string().nullable(),
+  revokedAt: z.string().nullable(),
+});
+export type ApiTokenDto = z.infer<typeof apiTokenSchema>;
+
+export { findingSchema, findingsSummarySchema };
