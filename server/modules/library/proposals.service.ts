@@ -2,6 +2,7 @@
 // (optionally editing) or rejects with a comment. Mail goes to the librarians on a new proposal
 // and to the proposer on the decision.
 import type { DataSource } from 'typeorm';
+import { PackageMatcher } from '../../../shared/library/index';
 import type { ApproveProposalInput, CreatePackageInput, PackageInput, ProposalDto, ProposalInput } from '../../../shared/schemas/library.schema';
 import { LibraryPackage } from '../../db/entities/library-package.entity';
 import { LibraryProposal } from '../../db/entities/library-proposal.entity';
@@ -24,6 +25,10 @@ function summary(p: { kind: string; payload: Record<string, unknown>; footprint:
   if (p.kind === 'new-package') return `new package ${pkg?.name ?? '?'}${p.footprint ? ` for footprint ${p.footprint}` : ''}`;
   if (p.kind === 'alias') return `alias ${String(p.payload.pattern)} → ${packageName ?? '?'}`;
   return `change to package ${packageName ?? pkg?.name ?? '?'}`;
+}
+
+function footprintMatches(pkg: { name: string; aliases: string[] }, footprint: string): boolean {
+  return new PackageMatcher([{ ...pkg, body: { length: 1, width: 1, height: 1, offsetX: 0, offsetY: 0 }, rotationOffset: 0, overhang: false, nozzles: [] }]).match(footprint).pkg !== null;
 }
 
 export class ProposalService {
@@ -93,7 +98,9 @@ export class ProposalService {
       let packageName: string | null = null;
       if (decision === 'approve') {
         if (row.kind === 'new-package') {
-          const pkg = (input.package ?? row.payload.package) as CreatePackageInput;
+          let pkg = (input.package ?? row.payload.package) as CreatePackageInput;
+          // From an unmatched footprint: the package must match it, else the footprint becomes an alias.
+          if (row.footprint && !footprintMatches(pkg, row.footprint)) pkg = { ...pkg, aliases: [...pkg.aliases, row.footprint] };
           const created = await this.library.createPackageIn(m, pkg, actor, ip);
           packageName = created.name;
           row.packageId = created.id;
