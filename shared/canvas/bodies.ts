@@ -89,7 +89,7 @@ export function pinOneMarks(p: PlacementColumns): Float64Array {
     const name = p.packageName[i] ?? p.footprint[i] ?? '';
     let style = styleCache.get(name);
     if (!style) styleCache.set(name, (style = pinOneStyle(name)));
-    const rad = Math.max(0.04, Math.min(hl, hw) * 0.35);
+    const rad = Math.max(0.04, Math.min(0.45, Math.min(hl, hw) * 0.3));
     const lx = -hl + rad * 1.3;
     const ly = style === 'end' ? 0 : hw - rad * 1.3;
     const r = p.rotation[i] * DEG;

@@ -236,6 +236,8 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, scene: Scene, vp: Vie
 
   // ---- findings -------------------------------------------------------------------------
   if (st.layers.findings) {
+    const po = scene.run.panel.outline;
+    const panelArea = Math.abs((po[1].x - po[0].x) * (po[3].y - po[0].y) - (po[1].y - po[0].y) * (po[3].x - po[0].x));
     worldOn(ctx, v);
     scene.findings.forEach((f, k) => {
       if (!meets(screen, scene.findingBoxes[k])) return;
@@ -252,8 +254,13 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, scene: Scene, vp: Vie
         ctx.moveTo(g.points[0][0], g.points[0][1]);
         for (let j = 1; j < g.points.length; j++) ctx.lineTo(g.points[j][0], g.points[j][1]);
         ctx.closePath();
-        ctx.globalAlpha = faint ? 0.1 : 0.3;
-        ctx.fill();
+        // a small area (an overlap) is filled; a large one (a board or the panel beyond its
+        // limit) only outlined, so it does not hide what lies under it
+        const b = scene.findingBoxes[k];
+        if ((b.maxX - b.minX) * (b.maxY - b.minY) < panelArea * 0.02) {
+          ctx.globalAlpha = faint ? 0.1 : 0.35;
+          ctx.fill();
+        }
         ctx.globalAlpha = faint ? 0.35 : 1;
         ctx.lineWidth = 2 * px;
         ctx.stroke();

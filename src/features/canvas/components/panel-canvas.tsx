@@ -161,34 +161,47 @@ export function PanelCanvas({
     fit();
   }, [width, height, scene, fit]);
 
+  // the view and the selection as data attributes, for browser tests and the benchmark
+  const publish = useCallback((s: CanvasState) => {
+    const el = containerRef.current;
+    if (!el) return;
+    if (s.view) el.dataset.view = `${s.view.s},${s.view.ox},${s.view.oy}`;
+    const p = sceneRef.current.run.placements;
+    el.dataset.selection = [...s.selected].slice(0, 50).map((i) => `${p.board[i]}:${p.ref[i]}`).join(' ');
+  }, []);
+
   // store → which layers to redraw
   useEffect(() => {
     let prev = store.getState();
     return store.subscribe(() => {
       const s = store.getState();
+      if (s === prev) return;
+      // `prev` moves first: the fit and focus below set the store again, re-entering here
+      const was = prev;
+      prev = s;
       let d = 0;
-      if (s.view !== prev.view || s.layers !== prev.layers) d = DIRTY_ALL;
-      if (s.filters !== prev.filters) {
+      if (s.view !== was.view || s.layers !== was.layers) d = DIRTY_ALL;
+      if (s.filters !== was.filters) {
         dimRef.current = dimMask(sceneRef.current, s.filters);
         d |= DIRTY_BODIES | DIRTY_OVERLAY;
       }
-      if (s.selected !== prev.selected || s.selectedFindings !== prev.selectedFindings || s.hovered !== prev.hovered || s.measure !== prev.measure || s.tool !== prev.tool) d |= DIRTY_OVERLAY;
-      if (s.fitRequest !== prev.fitRequest) fit();
-      if (s.focus && s.focus !== prev.focus && s.view) {
+      if (s.selected !== was.selected || s.selectedFindings !== was.selectedFindings || s.hovered !== was.hovered || s.measure !== was.measure || s.tool !== was.tool) d |= DIRTY_OVERLAY;
+      if (s.fitRequest !== was.fitRequest) fit();
+      if (s.focus && s.focus !== was.focus && s.view) {
         const { width: w, height: h } = sizeRef.current;
         const v = s.view;
         // keep the scale unless the whole panel shows: then zoom to about 8 px/mm
         const k = Math.max(v.s, 8);
         store.set({ view: { s: k, ox: w / 2 - k * s.focus.x, oy: h / 2 + k * s.focus.y } });
       }
-      if (s.tool !== prev.tool && s.tool !== 'align') {
+      if (s.tool !== was.tool && s.tool !== 'align') {
         extrasRef.current.alignImage = [];
         extrasRef.current.alignPanel = [];
       }
-      prev = s;
       if (d) schedule(d);
+      publish(store.getState());
     });
-  }, [store, schedule, fit]);
+  }, [store, schedule, fit, publish]);
 
   // ---- scene functions -------------------------------------------------------------------------
   const vp = () => ({ view: store.getState().view as ViewTransform, width: sizeRef.current.width, height: sizeRef.current.height });
