@@ -28,6 +28,7 @@ import { ProgramService, type LibrarySource } from './modules/programs/program.s
 import { registerProgramRoutes } from './modules/programs/program.router';
 import { RunFileService } from './modules/programs/run-file.service';
 import { UnauthenticatedError } from './lib/errors';
+import { registerOpenApiRoutes } from './lib/openapi';
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 export const APP_VERSION = '0.1.0';
@@ -134,6 +135,7 @@ export function createApp(deps: AppDeps): Express & { locals: { routes: ApiRoute
   registerMailRoutes(api, ds);
   registerLibraryRoutes(api, { ds, audit, users, mailer, publicUrl: env.PUBLIC_URL ?? `http://localhost:${env.PORT}` });
   registerProgramRoutes(api, programs, runFiles);
+  registerOpenApiRoutes(api, APP_VERSION);
   app.use('/api', api.router);
   app.use('/api', apiNotFound);
 

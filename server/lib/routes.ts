@@ -1,4 +1,5 @@
 import express, { type RequestHandler, type Router } from 'express';
+import type { z } from 'zod';
 import type { Role } from '../../shared/schemas/auth.schema';
 import { ForbiddenError, UnauthenticatedError } from './errors';
 
@@ -49,9 +50,12 @@ export function guard(access: Access): RequestHandler {
 export class ApiRoutes {
   readonly specs: RouteSpec[] = [];
   readonly router: Router = express.Router();
+  /** The handlers of each route ("GET /path"), so the OpenAPI description can read their tags. */
+  readonly handlers = new Map<string, RequestHandler[]>();
 
   private add(method: RouteSpec['method'], path: string, access: Access, handlers: RequestHandler[]) {
     this.specs.push({ method, path, access });
+    this.handlers.set(`${method} ${path}`, handlers);
     const m = method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
     this.router[m](path, guard(access), ...handlers);
   }
@@ -61,4 +65,36 @@ export class ApiRoutes {
   put(path: string, access: Access, ...h: RequestHandler[]) { this.add('PUT', path, access, h); }
   patch(path: string, access: Access, ...h: RequestHandler[]) { this.add('PATCH', path, access, h); }
   delete(path: string, access: Access, ...h: RequestHandler[]) { this.add('DELETE', path, access, h); }
+}
+
+// ---- route metadata for the OpenAPI description (server/lib/openapi.ts) ------------------------
+
+/** Where validate() records the schema it parses with, on the handler it returns. */
+export const VALIDATES = Symbol.for('placewright.validates');
+/** Where doc() records a route's summary and response. */
+export const ROUTE_DOC = Symbol.for('placewright.route-doc');
+
+export interface ValidationTag {
+  schema: z.ZodType;
+  part: 'body' | 'query' | 'params';
+}
+
+export interface RouteDoc {
+  summary?: string;
+  description?: string;
+  /** the success status; defaults to 204 for DELETE, else 200 */
+  status?: number;
+  /** schema of the JSON success body */
+  response?: z.ZodType;
+  /** a success body that is not JSON (e.g. `text/csv`) */
+  responseContentType?: string;
+}
+
+/**
+ * doc({ summary, response }) — a pass-through handler that only names a route's summary and
+ * response schema for the OpenAPI description: `api.get('/x', access, doc({...}), handler)`.
+ */
+export function doc(meta: RouteDoc): RequestHandler {
+  const h: RequestHandler = (_req, _res, next) => next();
+  return Object.assign(h, { [ROUTE_DOC]: meta });
 }

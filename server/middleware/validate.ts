@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import type { z } from 'zod';
 import { ValidationError } from '../lib/errors';
+import { VALIDATES, type ValidationTag } from '../lib/routes';
 
 type Part = 'body' | 'query' | 'params';
 
@@ -17,7 +18,7 @@ export function zodIssues(error: z.ZodError, prefix?: string) {
  * with the parsed value; answers 400 with every failing field path otherwise.
  */
 export function validate<S extends z.ZodType>(schema: S, part: Part = 'body'): RequestHandler {
-  return (req, _res, next) => {
+  const handler: RequestHandler = (req, _res, next) => {
     const result = schema.safeParse(req[part] ?? {});
     if (!result.success) {
       const errors = zodIssues(result.error, part === 'body' ? undefined : part);
@@ -35,4 +36,7 @@ export function validate<S extends z.ZodType>(schema: S, part: Part = 'body'): R
     }
     next();
   };
+  // Recorded for the OpenAPI description (server/lib/openapi.ts).
+  const tag: ValidationTag = { schema, part };
+  return Object.assign(handler, { [VALIDATES]: tag });
 }

@@ -88,6 +88,7 @@ const EXPECTED: Record<string, Access> = {
   'GET /tokens': ['engineer'],
   'POST /tokens': ['engineer'],
   'DELETE /tokens/:id': ['engineer'],
+  'GET /openapi.json': 'public',
 };
 
 const WHO: (Role | 'nobody')[] = ['nobody', 'admin', 'engineer', 'librarian', 'operator'];
