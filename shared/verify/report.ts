@@ -57,12 +57,19 @@ const KIND_RANK = new Map<FindingKind, number>(FINDING_KINDS.map((k, i) => [k, i
 export function fmtMm(v: number): string {
   const a = Math.abs(v);
   if (a === 0) return '0';
-  if (a >= 0.01) return v.toFixed(2);
+  if (a >= 0.01 && a < 1e9) {
+    // two decimals by integer arithmetic (as toFixed(2), without its cost in a long report)
+    const n = Math.round(a * 100);
+    const frac = n % 100;
+    return (v < 0 ? '-' : '') + ((n - frac) / 100) + (frac < 10 ? '.0' : '.') + frac;
+  }
   return Number(v.toPrecision(2)).toString();
 }
 
 /** The stable key of a finding: kind plus its sorted refs, or its boards for panel kinds. */
 export function findingKey(kind: FindingKind, refs: string[], boards: number[]): string {
+  if (refs.length === 1) return kind + '|' + refs[0];
+  if (refs.length === 2) return kind + '|' + refs[0] + '|' + refs[1];
   if (refs.length > 0) return `${kind}|${refs.join('|')}`;
   if (boards.length > 0) return `${kind}|boards:${boards.join(',')}`;
   return `${kind}|panel`;
@@ -85,15 +92,22 @@ export function buildReport(
   const keys = sortKeys(input, sink);
   const order = new Array<number>(n);
   for (let k = 0; k < n; k++) order[k] = k;
-  order.sort((x, y) => {
-    const bx = 5 * x;
-    const by = 5 * y;
-    for (let f = 0; f < 5; f++) {
-      const d = keys[bx + f] - keys[by + f];
-      if (d !== 0) return d;
-    }
-    return x - y;
-  });
+  // two packed numbers per record when the values fit (they do for any real panel), else five
+  const packed = packKeys(keys, n);
+  if (packed) {
+    const [k1, k2] = packed;
+    order.sort((x, y) => k1[x] - k1[y] || k2[x] - k2[y] || x - y);
+  } else {
+    order.sort((x, y) => {
+      const bx = 5 * x;
+      const by = 5 * y;
+      for (let f = 0; f < 5; f++) {
+        const d = keys[bx + f] - keys[by + f];
+        if (d !== 0) return d;
+      }
+      return x - y;
+    });
+  }
   const ctx: Ctx = { input, P, O, sink };
   const kept = Math.min(n, limit);
   const findings: Finding[] = new Array(kept);
@@ -179,6 +193,21 @@ function sortKeys(input: VerifyInput, sink: FindingSink): Float64Array {
     }
   }
   return keys;
+}
+
+const P21 = 2 ** 21;
+
+/** (kind, board, rank) → one number and (board, rank) → another, exact below 2^53. */
+function packKeys(keys: Float64Array, n: number): [Float64Array, Float64Array] | null {
+  for (let k = 0; k < 5 * n; k++) if (keys[k] + 1 >= P21) return null;
+  const k1 = new Float64Array(n);
+  const k2 = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const o = 5 * k;
+    k1[k] = (keys[o] * P21 + keys[o + 1] + 1) * P21 + keys[o + 2] + 1;
+    k2[k] = (keys[o + 3] + 1) * P21 + keys[o + 4] + 1;
+  }
+  return [k1, k2];
 }
 
 function isPairKind(raw: number): boolean {

@@ -40,6 +40,7 @@ import {
   K_SHADOW,
 } from './sink';
 import { buildReport } from './report';
+import { scratchF64, scratchI32 } from './scratch';
 import {
   SIDE_NAMES,
   type SideName,
@@ -113,7 +114,7 @@ export function verifyBruteForce(input: VerifyInput, options: VerifyOptions = {}
 
 function run(input: VerifyInput, options: VerifyOptions, brute: boolean): VerifyResult {
   const t0 = now();
-  validateInput(input);
+  validateShape(input);
   const limit = options.limit ?? DEFAULT_LIMIT;
   if (!Number.isInteger(limit) || limit < 0) {
     throw new VerifyInputError(`limit must be a whole number ≥ 0, got ${limit}`);
@@ -167,7 +168,29 @@ const NUMERIC = ['cx', 'cy', 'angleDeg', 'length', 'width', 'height', 'courtyard
 const NON_NEGATIVE = new Set(['length', 'width', 'height', 'courtyard', 'holderRadius']);
 const FLAGS = ['side', 'overhang', 'hasPackage', 'hasNozzle'] as const;
 
+/** Full validation: shape, then every number (precise messages). */
 export function validateInput(input: VerifyInput): void {
+  validateShape(input);
+  const n = input.count;
+  for (const f of NUMERIC) {
+    const a = input[f];
+    const nonNeg = NON_NEGATIVE.has(f);
+    const lo = nonNeg ? 0 : -Infinity;
+    for (let i = 0; i < n; i++) {
+      const v = a[i];
+      // v - v is NaN for NaN and ±Infinity
+      if (v - v !== 0 || v < lo) {
+        throw new VerifyInputError(
+          `${f}[${i}] (${input.ref[i]}) is ${v}, expected a finite number${nonNeg ? ' ≥ 0' : ''}`,
+        );
+      }
+    }
+  }
+}
+
+/** Array lengths, side codes, outlines, fiducials, reach (the per-number checks run inside
+ * prepare's single pass, falling back to validateInput for the message). */
+function validateShape(input: VerifyInput): void {
   const n = input.count;
   if (!Number.isInteger(n) || n < 0) throw new VerifyInputError(`count must be a whole number ≥ 0, got ${n}`);
   const len = (name: string, v: { length: number } | undefined): void => {
@@ -177,19 +200,7 @@ export function validateInput(input: VerifyInput): void {
   len('ref', input.ref);
   len('board', input.board);
   for (const f of FLAGS) len(f, input[f]);
-  for (const f of NUMERIC) {
-    const a = input[f];
-    len(f, a);
-    const nonNeg = NON_NEGATIVE.has(f);
-    for (let i = 0; i < n; i++) {
-      const v = a[i];
-      if (!Number.isFinite(v) || (nonNeg && v < 0)) {
-        throw new VerifyInputError(
-          `${f}[${i}] (${input.ref[i]}) is ${v}, expected a finite number${nonNeg ? ' ≥ 0' : ''}`,
-        );
-      }
-    }
-  }
+  for (const f of NUMERIC) len(f, input[f]);
   const side = input.side;
   for (let i = 0; i < n; i++) {
     if (side[i] > 1) throw new VerifyInputError(`side[${i}] (${input.ref[i]}) is ${side[i]}, expected 0 (top) or 1 (bottom)`);
@@ -215,32 +226,45 @@ export function validateInput(input: VerifyInput): void {
 
 export function prepare(input: VerifyInput): Prepared {
   const n = input.count;
-  const c = new Float64Array(n);
-  const s = new Float64Array(n);
-  const hx = new Float64Array(n);
-  const hy = new Float64Array(n);
-  const gex = new Float64Array(n);
-  const gey = new Float64Array(n);
+  const c = scratchF64('c', n);
+  const s = scratchF64('s', n);
+  const hx = scratchF64('hx', n);
+  const hy = scratchF64('hy', n);
+  const gex = scratchF64('gex', n);
+  const gey = scratchF64('gey', n);
   const cs = new Float64Array(2);
-  const { angleDeg, length, width, courtyard, side } = input;
+  const { angleDeg, length, width, courtyard, side, cx, cy, height, holderRadius } = input;
   let top = 0;
+  // x − x is 0 for every finite x and NaN for NaN or ±Infinity: one sum tells whether a bad
+  // number is anywhere (then validateInput names it)
+  let bad = 0;
+  let low = 0;
   for (let i = 0; i < n; i++) {
-    cosSinDeg(angleDeg[i], cs, 0);
+    const a = angleDeg[i];
+    const L = length[i];
+    const W = width[i];
+    const g = courtyard[i];
+    const H = height[i];
+    const r = holderRadius[i];
+    bad += a - a + (L - L) + (W - W) + (g - g) + (H - H) + (r - r) + (cx[i] - cx[i]) + (cy[i] - cy[i]);
+    low = Math.min(low, L, W, g, H, r);
+    cosSinDeg(a - a === 0 ? a : 0, cs, 0);
     const ci = cs[0];
     const si = cs[1];
     c[i] = ci;
     s[i] = si;
-    const x = length[i] / 2;
-    const y = width[i] / 2;
+    const x = L / 2;
+    const y = W / 2;
     hx[i] = x;
     hy[i] = y;
     const ac = Math.abs(ci);
     const as = Math.abs(si);
-    const g = courtyard[i] * (ac + as);
-    gex[i] = ac * x + as * y + g;
-    gey[i] = as * x + ac * y + g;
+    const grow = g * (ac + as);
+    gex[i] = ac * x + as * y + grow;
+    gey[i] = as * x + ac * y + grow;
     if (side[i] === 0) top++;
   }
+  if (bad !== 0 || low < 0) validateInput(input);
   const topIds = new Int32Array(top);
   const bottomIds = new Int32Array(n - top);
   for (let i = 0, t = 0, b = 0; i < n; i++) {
@@ -249,15 +273,15 @@ export function prepare(input: VerifyInput): Prepared {
   }
   return {
     n,
-    cx: input.cx,
-    cy: input.cy,
+    cx,
+    cy,
     c,
     s,
     hx,
     hy,
-    g: input.courtyard,
-    h: input.height,
-    R: input.holderRadius,
+    g: courtyard,
+    h: height,
+    R: holderRadius,
     gex,
     gey,
     sideIds: [topIds, bottomIds],
@@ -313,18 +337,116 @@ export function buildTree(P: Prepared, ids: Int32Array, nodeSize = NODE_SIZE): F
 
 export const NODE_SIZE = 16;
 
-/** The query box of part i: its grown box, widened to its nozzle holder radius around the centre
- * (where a taller neighbour's body would shadow it). Written into out[0..3]. */
-export function queryBox(P: Prepared, i: number, out: Float64Array): void {
-  const x = P.cx[i];
-  const y = P.cy[i];
-  const r = P.R[i];
-  const ex = P.gex[i] > r ? P.gex[i] : r;
-  const ey = P.gey[i] > r ? P.gey[i] : r;
-  out[0] = x - ex;
-  out[1] = y - ey;
-  out[2] = x + ex;
-  out[3] = y + ey;
+/** Parts per index query: neighbouring parts share one query (the union of their boxes), which
+ * costs far less than one tree descent each; each part then scans the few candidates. */
+export const GROUP_SIZE = 4;
+
+/**
+ * The index queries of one side. Each part's own query box is its grown box widened to its nozzle
+ * holder radius around the centre (where a taller neighbour's body would shadow it). Parts are
+ * bucketed on a grid of cells holding about `groupSize` parts each (a counting sort, O(n)); one
+ * query per non-empty cell, its box the union of its parts' boxes.
+ */
+export interface QueryPlan {
+  /** local part indices (into ids) in cell order */
+  order: Int32Array;
+  /** group g holds order[start[g] .. start[g + 1]) */
+  start: Int32Array;
+  groups: number;
+  /** per group: minX, minY, maxX, maxY of the query */
+  box: Float64Array;
+  /** per local part: its own query box */
+  qx0: Float64Array;
+  qy0: Float64Array;
+  qx1: Float64Array;
+  qy1: Float64Array;
+}
+
+export function planQueries(P: Prepared, ids: Int32Array, groupSize = GROUP_SIZE): QueryPlan {
+  const m = ids.length;
+  const { cx, cy, gex, gey, R } = P;
+  const qx0 = scratchF64('qx0', m);
+  const qy0 = scratchF64('qy0', m);
+  const qx1 = scratchF64('qx1', m);
+  const qy1 = scratchF64('qy1', m);
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (let k = 0; k < m; k++) {
+    const i = ids[k];
+    const x = cx[i];
+    const y = cy[i];
+    const r = R[i];
+    const ex = gex[i] > r ? gex[i] : r;
+    const ey = gey[i] > r ? gey[i] : r;
+    qx0[k] = x - ex;
+    qy0[k] = y - ey;
+    qx1[k] = x + ex;
+    qy1[k] = y + ey;
+    if (x < minX) minX = x;
+    if (x > maxX) maxX = x;
+    if (y < minY) minY = y;
+    if (y > maxY) maxY = y;
+  }
+  // grid of about m / groupSize cells over the part centres
+  const w = maxX - minX || 1;
+  const hgt = maxY - minY || 1;
+  const cellsWanted = Math.max(1, Math.ceil(m / groupSize));
+  const size = Math.sqrt((w * hgt) / cellsWanted) || 1;
+  const cols = Math.max(1, Math.min(cellsWanted, Math.ceil(w / size)));
+  const rows = Math.max(1, Math.min(cellsWanted, Math.ceil(hgt / size)));
+  const sx = cols / w;
+  const sy = rows / hgt;
+  const cellOf = scratchI32('cellOf', m);
+  const count = scratchI32('count', cols * rows + 1).fill(0);
+  for (let k = 0; k < m; k++) {
+    const i = ids[k];
+    let c = ((cx[i] - minX) * sx) | 0;
+    let r = ((cy[i] - minY) * sy) | 0;
+    if (c >= cols) c = cols - 1;
+    if (r >= rows) r = rows - 1;
+    // serpentine rows keep consecutive cells adjacent
+    const cell = r * cols + (r & 1 ? cols - 1 - c : c);
+    cellOf[k] = cell;
+    count[cell + 1]++;
+  }
+  let groups = 0;
+  for (let c = 1; c <= cols * rows; c++) {
+    if (count[c] > 0) groups++;
+    count[c] += count[c - 1];
+  }
+  const order = scratchI32('order', m);
+  const fill = scratchI32('fill', cols * rows);
+  fill.set(count.subarray(0, cols * rows));
+  for (let k = 0; k < m; k++) order[fill[cellOf[k]]++] = k;
+  const start = scratchI32('start', groups + 1);
+  const box = scratchF64('box', 4 * groups);
+  let g = 0;
+  for (let c = 0; c < cols * rows; c++) {
+    const a = count[c];
+    const b = count[c + 1];
+    if (a === b) continue;
+    start[g] = a;
+    let x0 = Infinity;
+    let y0 = Infinity;
+    let x1 = -Infinity;
+    let y1 = -Infinity;
+    for (let t = a; t < b; t++) {
+      const k = order[t];
+      if (qx0[k] < x0) x0 = qx0[k];
+      if (qy0[k] < y0) y0 = qy0[k];
+      if (qx1[k] > x1) x1 = qx1[k];
+      if (qy1[k] > y1) y1 = qy1[k];
+    }
+    box[4 * g] = x0;
+    box[4 * g + 1] = y0;
+    box[4 * g + 2] = x1;
+    box[4 * g + 3] = y1;
+    g++;
+  }
+  start[groups] = m;
+  return { order, start, groups, box, qx0, qy0, qx1, qy1 };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -413,46 +535,93 @@ function makePairTests(P: Prepared, sink: FindingSink) {
 
 function pairsIndexed(P: Prepared, ids: Int32Array, tree: Flatbush | null, sink: FindingSink): void {
   if (!tree) return;
-  const { overlapPair, shadowPair, h, R } = makePairTests(P, sink);
-  const { cx, cy, gex, gey } = P;
+  const { overlapPair, h, R } = makePairTests(P, sink);
+  const { cx, cy, hx, hy, gex, gey } = P;
+  const cosA = P.c;
+  const sinA = P.s;
+  const plan = planQueries(P, ids);
+  const { order, start, box, qx0, qy0, qx1, qy1 } = plan;
   const m = ids.length;
-  // the current query's part, read by the visitor
-  let qk = 0;
-  let qi = 0;
-  let qh = 0;
-  let qR = 0;
-  let gx0 = 0;
-  let gy0 = 0;
-  let gx1 = 0;
-  let gy1 = 0;
-  // called by flatbush for every item whose box meets the query box; returns false so that
-  // flatbush collects nothing: the findings go straight to the sink
-  const visit = (kj: number, x0: number, y0: number, x1: number, y1: number): boolean => {
-    if (kj === qk) return false;
-    const j = ids[kj];
-    if (qR > 0 && h[j] - qh > SHADOW_STEP) shadowPair(qi, j);
-    // each unordered pair once (from its lower index), and only when the grown boxes meet
-    if (kj > qk && x0 <= gx1 && x1 >= gx0 && y0 <= gy1 && y1 >= gy0) overlapPair(qi, j);
-    return false;
-  };
+  // grown boxes by local index, four numbers side by side (one cache line per candidate)
+  const lb = scratchF64('lb', 4 * m);
   for (let k = 0; k < m; k++) {
     const i = ids[k];
-    qk = k;
-    qi = i;
-    qh = h[i];
-    const r = R[i];
-    qR = r;
-    const x = cx[i];
-    const y = cy[i];
-    const ex = gex[i];
-    const ey = gey[i];
-    gx0 = x - ex;
-    gy0 = y - ey;
-    gx1 = x + ex;
-    gy1 = y + ey;
-    const qx = ex > r ? ex : r;
-    const qy = ey > r ? ey : r;
-    tree.search(x - qx, y - qy, x + qx, y + qy, visit);
+    lb[4 * k] = cx[i] - gex[i];
+    lb[4 * k + 1] = cy[i] - gey[i];
+    lb[4 * k + 2] = cx[i] + gex[i];
+    lb[4 * k + 3] = cy[i] + gey[i];
+  }
+  // the current group's candidates, copied next to each other
+  let cb = new Float64Array(256);
+  let ck = new Int32Array(64);
+  for (let g = 0; g < plan.groups; g++) {
+    // one descent of the tree for the whole group; candidates come back as local indices
+    const cands = tree.search(box[4 * g], box[4 * g + 1], box[4 * g + 2], box[4 * g + 3]);
+    const nc = cands.length;
+    if (nc > ck.length) {
+      ck = new Int32Array(2 * nc);
+      cb = new Float64Array(8 * nc);
+    }
+    for (let c = 0; c < nc; c++) {
+      const kj = cands[c];
+      ck[c] = kj;
+      cb[4 * c] = lb[4 * kj];
+      cb[4 * c + 1] = lb[4 * kj + 1];
+      cb[4 * c + 2] = lb[4 * kj + 2];
+      cb[4 * c + 3] = lb[4 * kj + 3];
+    }
+    const end = start[g + 1];
+    for (let t = start[g]; t < end; t++) {
+      const k = order[t];
+      const i = ids[k];
+      const hi = h[i];
+      const ri = R[i];
+      const rr = ri - TOUCH_EPS;
+      const xi = cx[i];
+      const yi = cy[i];
+      const gx0 = lb[4 * k];
+      const gy0 = lb[4 * k + 1];
+      const gx1 = lb[4 * k + 2];
+      const gy1 = lb[4 * k + 3];
+      const ax0 = qx0[k];
+      const ay0 = qy0[k];
+      const ax1 = qx1[k];
+      const ay1 = qy1[k];
+      for (let c = 0; c < nc; c++) {
+        const x0 = cb[4 * c];
+        if (x0 > ax1) continue;
+        const x1 = cb[4 * c + 2];
+        if (x1 < ax0) continue;
+        const y0 = cb[4 * c + 1];
+        if (y0 > ay1) continue;
+        const y1 = cb[4 * c + 3];
+        if (y1 < ay0) continue;
+        // the candidate's grown box meets this part's own query box
+        const kj = ck[c];
+        if (kj === k) continue;
+        const j = ids[kj];
+        if (ri > 0 && h[j] - hi > SHADOW_STEP) {
+          // the nozzle shadow (as shadowPair, inlined: it runs for every taller candidate)
+          const dx = xi - cx[j];
+          const dy = yi - cy[j];
+          const cj = cosA[j];
+          const sj = sinA[j];
+          let lx = Math.abs(dx * cj + dy * sj) - hx[j];
+          let ly = Math.abs(dy * cj - dx * sj) - hy[j];
+          if (lx < rr && ly < rr) {
+            if (lx < 0) lx = 0;
+            if (ly < 0) ly = 0;
+            const d2 = lx * lx + ly * ly;
+            if (d2 < rr * rr) {
+              const dist = Math.sqrt(d2);
+              sink.add(K_SHADOW, i, j, 0, ri - dist, dist);
+            }
+          }
+        }
+        // each unordered pair once (from its lower local index), when the grown boxes meet
+        if (kj > k && x0 <= gx1 && x1 >= gx0 && y0 <= gy1 && y1 >= gy0) overlapPair(i, j);
+      }
+    }
   }
 }
 
