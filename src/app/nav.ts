@@ -13,6 +13,8 @@ export const NAV: NavItem[] = [
   { to: '/', label: 'Home', roles: [], section: 'work' },
   { to: '/account', label: 'Account', roles: [], section: 'work' },
   { to: '/panel-preview', label: 'Panel preview', roles: ['engineer'], section: 'work' },
+  { to: '/run-files', label: 'Run files', roles: ['operator', 'engineer'], section: 'work' },
+  { to: '/tokens', label: 'Line access', roles: ['engineer'], section: 'work' },
   { to: '/admin/users', label: 'Users', roles: ['admin'], section: 'admin' },
   { to: '/admin/audit', label: 'Audit log', roles: ['admin'], section: 'admin' },
   { to: '/admin/outbox', label: 'Outbox', roles: ['admin'], section: 'admin' },

@@ -13,6 +13,9 @@ const AuditRoute = lazy(() => import('./routes/admin/audit'));
 const OutboxRoute = lazy(() => import('./routes/admin/outbox'));
 const CanvasPreviewRoute = lazy(() => import('./routes/canvas-preview'));
 const NotFoundRoute = lazy(() => import('./routes/not-found'));
+const RunFilesRoute = lazy(() => import('./routes/run-files/index'));
+const SetupSheetRoute = lazy(() => import('./routes/run-files/setup-sheet'));
+const TokensRoute = lazy(() => import('./routes/tokens'));
 
 function Loading() {
   return (
@@ -60,6 +63,9 @@ export const routes = [
       { path: 'admin/audit', element: page(<RequireRole roles={['admin']}><AuditRoute /></RequireRole>) },
       { path: 'admin/outbox', element: page(<RequireRole roles={['admin']}><OutboxRoute /></RequireRole>) },
       { path: 'panel-preview', element: page(<RequireRole roles={['engineer']}><CanvasPreviewRoute /></RequireRole>) },
+      { path: 'run-files', element: page(<RequireRole roles={['operator', 'engineer']}><RunFilesRoute /></RequireRole>) },
+      { path: 'run-files/:revisionId/setup-sheet', element: page(<RequireRole roles={['operator', 'engineer']}><SetupSheetRoute /></RequireRole>) },
+      { path: 'tokens', element: page(<RequireRole roles={['engineer']}><TokensRoute /></RequireRole>) },
       { path: '*', element: page(<NotFoundRoute />) },
     ],
   },
