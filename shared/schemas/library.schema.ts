@@ -128,7 +128,7 @@ const meta = {
   updatedBy: z.string().nullable(),
 };
 
-export const aliasRefSchema = z.object({ id: z.string().uuid(), pattern: z.string() });
+export const aliasRefSchema = z.object({ id: z.string().uuid(), pattern: z.string(), version: z.number().int() });
 export const packageSchema = packageFields.extend({
   ...meta,
   aliases: z.array(aliasRefSchema),

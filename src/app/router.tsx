@@ -5,6 +5,7 @@ import { ErrorPanel, ProgressBar } from '../components/ui/misc';
 import { useMe } from '../features/auth/api/get-me';
 import { AppShell } from './layouts/app-shell';
 import { SignInRoute } from './routes/sign-in';
+import { libraryRoute } from './routes/library/routes';
 
 const HomeRoute = lazy(() => import('./routes/home'));
 const AccountRoute = lazy(() => import('./routes/account'));
@@ -66,6 +67,7 @@ export const routes = [
       { path: 'run-files', element: page(<RequireRole roles={['operator', 'engineer']}><RunFilesRoute /></RequireRole>) },
       { path: 'run-files/:revisionId/setup-sheet', element: page(<RequireRole roles={['operator', 'engineer']}><SetupSheetRoute /></RequireRole>) },
       { path: 'tokens', element: page(<RequireRole roles={['engineer']}><TokensRoute /></RequireRole>) },
+      libraryRoute,
       { path: '*', element: page(<NotFoundRoute />) },
     ],
   },

@@ -59,7 +59,7 @@ function toPackageDto(p: LibraryPackage, aliases: LibraryAlias[], nozzles: Libra
     version: p.version,
     updatedAt: iso(p.updatedAt),
     updatedBy: p.updatedBy,
-    aliases: aliases.map((a) => ({ id: a.id, pattern: a.pattern })),
+    aliases: aliases.map((a) => ({ id: a.id, pattern: a.pattern, version: a.version })),
     warnings: packageWarnings(p, nozzles),
   };
 }
