@@ -89,7 +89,9 @@ export function buildReport(
 ): VerifyResult {
   const n = sink.size;
   // sort the compact records first (numeric keys), then build objects for the first `limit` only
-  const keys = sortKeys(input, sink);
+  // swap[k] = 1 when record k's second part comes first in "BOARD:REF" order
+  const swap = new Uint8Array(n);
+  const keys = sortKeys(input, sink, swap);
   const order = new Array<number>(n);
   for (let k = 0; k < n; k++) order[k] = k;
   // two packed numbers per record when the values fit (they do for any real panel), else five
@@ -108,7 +110,7 @@ export function buildReport(
       return x - y;
     });
   }
-  const ctx: Ctx = { input, P, O, sink };
+  const ctx: Ctx = { input, P, O, sink, swap };
   const kept = Math.min(n, limit);
   const findings: Finding[] = new Array(kept);
   for (let t = 0; t < kept; t++) findings[t] = draft(ctx, order[t]);
@@ -140,7 +142,7 @@ export function buildReport(
 
 /** Five numbers per record: severity and kind rank, then (board, natural reference rank) of the
  * first and second subject in "BOARD:REF" order (-1 where there is none). */
-function sortKeys(input: VerifyInput, sink: FindingSink): Float64Array {
+function sortKeys(input: VerifyInput, sink: FindingSink, swap: Uint8Array): Float64Array {
   const n = sink.size;
   const { board, ref } = input;
   // natural rank of the references that occur in findings
@@ -178,6 +180,7 @@ function sortKeys(input: VerifyInput, sink: FindingSink): Float64Array {
         let b2 = board[j];
         let r2 = rank.get(ref[j])!;
         if (b2 < b1 || (b2 === b1 && r2 < r1)) {
+          swap[k] = 1;
           const tb = b1;
           b1 = b2;
           b2 = tb;
@@ -223,6 +226,7 @@ interface Ctx {
   P: Prepared;
   O: PreparedOutlines;
   sink: FindingSink;
+  swap: Uint8Array;
 }
 
 function partName(input: VerifyInput, i: number): string {
@@ -252,18 +256,13 @@ function singleDraft(
   return finding;
 }
 
-/** true when j sorts before i (board number, then natural reference) */
-function swapped(input: VerifyInput, i: number, j: number): boolean {
-  return compareBoardRefs(input.board[j], input.ref[j], input.board[i], input.ref[i]) < 0;
-}
-
 function pairDraft(
-  input: VerifyInput, kind: FindingKind, severity: 'error' | 'warning', i: number, j: number,
+  input: VerifyInput, kind: FindingKind, severity: 'error' | 'warning', i: number, j: number, swapIJ: boolean,
   message: string, geometry: FindingGeometry, depth: number | null, distance: number | null,
 ): Draft {
   let first = i;
   let second = j;
-  if (swapped(input, i, j)) {
+  if (swapIJ) {
     first = j;
     second = i;
   }
@@ -306,6 +305,7 @@ const quadB = new Float64Array(8);
 function draft(ctx: Ctx, k: number): Draft {
   const { input, P, O, sink } = ctx;
   const raw = sink.kind[k];
+  const sw = ctx.swap[k] === 1;
   const { kind, severity } = RAW[raw];
   const a = sink.a[k];
   const b = sink.b[k];
@@ -316,14 +316,16 @@ function draft(ctx: Ctx, k: number): Draft {
   switch (raw) {
     case K_BODY: {
       // geometry and depth from the pair in report order, so they do not depend on input order
-      const [p, q] = swapped(input, a, b) ? [b, a] : [a, b];
+      const p = sw ? b : a;
+      const q = sw ? a : b;
       const pts = rectIntersectionPolygon(cx[p], cy[p], c[p], s[p], hx[p], hy[p], cx[q], cy[q], c[q], s[q], hx[q], hy[q]);
       const d = rectSatDepth(cx[p], cy[p], c[p], s[p], hx[p], hy[p], cx[q], cy[q], c[q], s[q], hx[q], hy[q]);
       const message = `${partName(input, p)} overlaps ${partName(input, q)} by ${fmtMm(d)} mm`;
-      return pairDraft(input, kind, severity, a, b, message, polyOrPoint(pts, cx[p], cy[p]), d, null);
+      return pairDraft(input, kind, severity, a, b, sw, message, polyOrPoint(pts, cx[p], cy[p]), d, null);
     }
     case K_COURTYARD: {
-      const [p, q] = swapped(input, a, b) ? [b, a] : [a, b];
+      const p = sw ? b : a;
+      const q = sw ? a : b;
       const gp = g[p];
       const gq = g[q];
       const pts = rectIntersectionPolygon(
@@ -339,7 +341,7 @@ function draft(ctx: Ctx, k: number): Draft {
       const gap = hx[p] * hy[p] > 0 && hx[q] * hy[q] > 0 ? convexGap(quadA, 4, quadB, 4) : pointGap(P, p, q);
       const gapText = gap <= 1e-6 ? 'the bodies touch' : `bodies ${fmtMm(gap)} mm apart`;
       const message = `Courtyards of ${partName(input, p)} and ${partName(input, q)} overlap by ${fmtMm(d)} mm (${gapText})`;
-      return pairDraft(input, kind, severity, a, b, message, polyOrPoint(pts, cx[p], cy[p]), d, gap <= 1e-6 ? 0 : gap);
+      return pairDraft(input, kind, severity, a, b, sw, message, polyOrPoint(pts, cx[p], cy[p]), d, gap <= 1e-6 ? 0 : gap);
     }
     case K_OFF_BOARD:
     case K_OVERHANG: {
@@ -360,7 +362,7 @@ function draft(ctx: Ctx, k: number): Draft {
       // a = the part being placed, b = the taller neighbour
       const near = nearestPointOnRect(cx[a], cy[a], cx[b], cy[b], c[b], s[b], hx[b], hy[b]);
       const message = `${partName(input, b)} (${fmtMm(P.h[b])} mm tall) is ${fmtMm(dist)} mm from the centre of ${partName(input, a)} (${fmtMm(P.h[a])} mm tall), within its nozzle holder radius of ${fmtMm(P.R[a])} mm: place ${input.ref[a]} first`;
-      return pairDraft(input, kind, severity, a, b, message, { type: 'segment', from: [cx[a], cy[a]], to: near }, depth, dist);
+      return pairDraft(input, kind, severity, a, b, sw, message, { type: 'segment', from: [cx[a], cy[a]], to: near }, depth, dist);
     }
     case K_REACH: {
       const r = input.reach!;

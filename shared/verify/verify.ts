@@ -339,7 +339,7 @@ export const NODE_SIZE = 16;
 
 /** Parts per index query: neighbouring parts share one query (the union of their boxes), which
  * costs far less than one tree descent each; each part then scans the few candidates. */
-export const GROUP_SIZE = 4;
+export const GROUP_SIZE = 2;
 
 /**
  * The index queries of one side. Each part's own query box is its grown box widened to its nozzle
