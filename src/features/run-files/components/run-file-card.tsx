@@ -84,7 +84,18 @@ export function RunFileCard({ entry }: { entry: RunFileEntry }) {
           </tbody>
         </table>
       )}
+      {files.length > 0 && <ChecksumNote />}
       {reporting && <ProblemForm revisionId={r.revisionId} what={what} onDone={() => setReporting(false)} />}
     </article>
+  );
+}
+
+/** What each checksum covers (PLACEMENT-LIST.md): a CSV's is the file's own `# sha256:` line. */
+export function ChecksumNote() {
+  return (
+    <p className="mt-2 text-xs text-ink-500">
+      CSV: SHA-256 of everything after the <code className="num">#</code> lines (header row included), the same value as the file’s own{' '}
+      <code className="num"># sha256:</code> line. JSON: SHA-256 of the whole file.
+    </p>
   );
 }

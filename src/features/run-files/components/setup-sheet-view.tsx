@@ -6,6 +6,7 @@ import { dateTime, mm } from '../../../lib/format';
 import { sideLabel } from '../lib/format';
 import { boardsOf, groupParts, nozzleCounts, perBoardText, visionCounts } from '../lib/setup-sheet';
 import { Sha256 } from './copy-button';
+import { ChecksumNote } from './run-file-card';
 import { SafetyNote } from './safety-note';
 
 /** Print rules: no navigation, black on white, each side on its own page. */
@@ -79,6 +80,7 @@ export function SetupSheetView({ sheet, files }: { sheet: SetupSheetDto; files?:
             ))}
           </tbody>
         </table>
+        <ChecksumNote />
       </section>
 
       <div className="mb-4 grid gap-4 md:grid-cols-2">
