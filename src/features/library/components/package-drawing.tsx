@@ -35,7 +35,7 @@ const fmt = (v: number) => `${v.toFixed(3)} mm`;
  * pin-1 mark, the placement origin, the body offset and an arrow for zero orientation turned by the
  * rotation offset. Draws what the form holds; computes nothing that matters elsewhere.
  */
-export function PackageDrawing({ values, width = 420, height = 340 }: { values: DrawingValues; width?: number; height?: number }) {
+export function PackageDrawing({ values, width = 438, height = 360 }: { values: DrawingValues; width?: number; height?: number }) {
   const L = ok(values.bodyLength) && values.bodyLength > 0 ? values.bodyLength : 0;
   const W = ok(values.bodyWidth) && values.bodyWidth > 0 ? values.bodyWidth : 0;
   const cy = ok(values.courtyard) && values.courtyard >= 0 ? values.courtyard : 0;
@@ -46,10 +46,11 @@ export function PackageDrawing({ values, width = 420, height = 340 }: { values: 
 
   // Extent to fit: courtyard rectangle, the origin, and the arrow (as long as the larger body side).
   const arrowLen = Math.max(L, W, 0.5) * 0.75;
-  const xs = [ox - L / 2 - cy, ox + L / 2 + cy, 0, -arrowLen, arrowLen];
-  const ys = [oy - W / 2 - cy, oy + W / 2 + cy, 0, -arrowLen, arrowLen];
+  const rad0 = (rot * Math.PI) / 180;
+  const xs = [ox - L / 2 - cy, ox + L / 2 + cy, 0, Math.cos(rad0) * arrowLen * 1.15, rot !== 0 ? arrowLen : 0];
+  const ys = [oy - W / 2 - cy, oy + W / 2 + cy, 0, Math.sin(rad0) * arrowLen * 1.15];
   const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
-  const margin = { l: 30, r: 90, t: 34, b: 56 };
+  const margin = { l: 112, r: 70, t: 40, b: 44 };
   const s = Math.min((width - margin.l - margin.r) / Math.max(maxX - minX, 1e-3), (height - margin.t - margin.b) / Math.max(maxY - minY, 1e-3));
   const cx0 = margin.l + ((width - margin.l - margin.r) - (maxX - minX) * s) / 2 - minX * s;
   const cy0 = margin.t + ((height - margin.t - margin.b) - (maxY - minY) * s) / 2 + maxY * s;
@@ -62,7 +63,7 @@ export function PackageDrawing({ values, width = 420, height = 340 }: { values: 
   const rad = (rot * Math.PI) / 180;
   const ax = Math.cos(rad) * arrowLen, ay = Math.sin(rad) * arrowLen;
   const dimY = py(oy - W / 2 - cy) + 20;
-  const dimX = px(ox + L / 2 + cy) + 18;
+  const dimX = px(ox - L / 2 - cy) - 18;
   const bodyPx = Math.min(L, W) * s;
   const pinR = Math.max(2.5, Math.min(6, bodyPx * 0.12));
 
@@ -113,28 +114,25 @@ export function PackageDrawing({ values, width = 420, height = 340 }: { values: 
               <Arrow points={[bx + (L * s) / 2, dimY, bx + L * s, dimY]} stroke={C.dim} fill={C.dim} strokeWidth={1} pointerLength={5} pointerWidth={5} />
               <Text x={bx + (L * s) / 2 - 60} y={dimY + 6} width={120} align="center" text={`L ${fmt(L)}`} fill={C.dim} fontSize={12} fontFamily="Roboto Mono, monospace" />
               {/* width dimension */}
-              <Line points={[dimX - 8, by, dimX + 4, by]} stroke={C.dim} strokeWidth={1} />
-              <Line points={[dimX - 8, by + W * s, dimX + 4, by + W * s]} stroke={C.dim} strokeWidth={1} />
+              <Line points={[dimX - 4, by, dimX + 8, by]} stroke={C.dim} strokeWidth={1} />
+              <Line points={[dimX - 4, by + W * s, dimX + 8, by + W * s]} stroke={C.dim} strokeWidth={1} />
               <Arrow points={[dimX, by + (W * s) / 2, dimX, by]} stroke={C.dim} fill={C.dim} strokeWidth={1} pointerLength={5} pointerWidth={5} />
               <Arrow points={[dimX, by + (W * s) / 2, dimX, by + W * s]} stroke={C.dim} fill={C.dim} strokeWidth={1} pointerLength={5} pointerWidth={5} />
-              <Text x={dimX + 6} y={by + (W * s) / 2 - 7} text={`W ${fmt(W)}`} fill={C.dim} fontSize={12} fontFamily="Roboto Mono, monospace" />
+              <Text x={dimX - 106} y={by + (W * s) / 2 - 7} width={100} align="right" text={`W ${fmt(W)}`} fill={C.dim} fontSize={12} fontFamily="Roboto Mono, monospace" />
             </>
           )}
           {/* legend */}
           <Text x={10} y={8} text="Top view, zero orientation" fill={C.dim} fontSize={12} />
-          {valid && (
-            <Text
-              x={10}
-              y={height - 20}
-              width={width - 20}
-              text={`courtyard ${fmt(cy)}${ox !== 0 || oy !== 0 ? `   body offset ${ox.toFixed(3)}, ${oy.toFixed(3)} mm` : ''}${values.bodyHeight && values.bodyHeight > 0 ? `   H ${fmt(values.bodyHeight)}` : ''}`}
-              fill={C.courtyard}
-              fontSize={11}
-              fontFamily="Roboto Mono, monospace"
-            />
-          )}
         </Layer>
       </Stage>
+      {valid && (
+        <p className="num border-t border-ink-800 px-3 py-1.5 text-2xs text-ink-300">
+          courtyard {fmt(cy)}
+          {(ox !== 0 || oy !== 0) && <> · body offset {ox.toFixed(3)}, {oy.toFixed(3)} mm</>}
+          {values.bodyHeight != null && values.bodyHeight > 0 && <> · height {fmt(values.bodyHeight)}</>}
+          {rot !== 0 && <> · rotation offset {rot}°</>}
+        </p>
+      )}
       <figcaption className="flex flex-wrap gap-x-4 gap-y-1 border-t border-ink-800 px-3 py-2 text-2xs text-ink-300">
         <span><span className="inline-block h-2 w-3 border-2 align-middle" style={{ borderColor: C.body }} /> body</span>
         <span><span className="inline-block h-2 w-3 border border-dashed align-middle" style={{ borderColor: C.courtyard }} /> courtyard</span>

@@ -83,7 +83,7 @@ function NozzleList({ value, onChange, nozzles, disabled, error }: { value: stri
 
 function Section({ title, children }: { title: string; children: ReactNode }) {
   return (
-    <fieldset className="grid grid-cols-2 gap-3 rounded border border-ink-200 bg-white p-3 md:grid-cols-3">
+    <fieldset className="grid grid-cols-2 gap-3 rounded border border-ink-200 bg-white p-3 @xl:grid-cols-3">
       <legend className="px-1 text-xs font-semibold uppercase tracking-wide text-ink-500">{title}</legend>
       {children}
     </fieldset>
@@ -131,7 +131,8 @@ export function PackageForm({ label, initial, nozzles, presets, withAliases, rea
   const ro = readOnly ? { readOnly: true, disabled: true } : {};
 
   return (
-    <div className="grid grid-cols-1 gap-5 xl:grid-cols-[minmax(0,1fr)_440px]">
+    <div className="@container">
+    <div className="grid grid-cols-1 gap-5 @5xl:grid-cols-[minmax(0,1fr)_440px]">
       <form aria-label={label} noValidate onSubmit={submit} className="flex flex-col gap-4">
         {banner && (
           <div role="alert" className={`rounded border px-4 py-3 text-sm ${banner.conflict ? 'border-copper-400 bg-copper-50 text-copper-800' : 'border-sev-error/40 bg-sev-error/5 text-sev-error'}`}>
@@ -176,7 +177,7 @@ export function PackageForm({ label, initial, nozzles, presets, withAliases, rea
           </label>
         </Section>
         <Section title="Pick-up and vision">
-          <div className="col-span-2 md:col-span-3">
+          <div className="col-span-2 @xl:col-span-3">
             <Controller control={form.control} name="nozzles" render={({ field: f }) => <NozzleList value={f.value} onChange={f.onChange} nozzles={nozzles} disabled={readOnly} error={field('nozzles')} />} />
           </div>
           <SelectField
@@ -222,7 +223,7 @@ export function PackageForm({ label, initial, nozzles, presets, withAliases, rea
           {actions}
         </div>
       </form>
-      <aside className="flex flex-col gap-3 xl:sticky xl:top-4 xl:self-start">
+      <aside className="order-first flex flex-col gap-3 @5xl:sticky @5xl:top-4 @5xl:order-none @5xl:self-start">
         <PackageDrawing values={{ ...v, bodyLength: Number(v.bodyLength), bodyWidth: Number(v.bodyWidth), bodyHeight: Number(v.bodyHeight), offsetX: Number(v.offsetX), offsetY: Number(v.offsetY), courtyard: Number(v.courtyard), rotationOffset: Number(v.rotationOffset), polarised: !!v.polarised, family: v.family ?? 'other' }} />
         {warnings.length > 0 && (
           <ul aria-label="Warnings" className="flex flex-col gap-1 rounded border border-sev-warning/60 bg-sev-warning/10 px-3 py-2 text-xs text-copper-800">
@@ -230,6 +231,7 @@ export function PackageForm({ label, initial, nozzles, presets, withAliases, rea
           </ul>
         )}
       </aside>
+    </div>
     </div>
   );
 }
