@@ -157,6 +157,9 @@ describe('run files in Chromium', () => {
       const breaks = await page.getByRole('region', { name: 'Bottom side' }).evaluate((el) => getComputedStyle(el).breakBefore);
       expect(breaks).toBe('page');
       await page.screenshot({ path: `${SCREENSHOT_DIR}/setup-sheet-print.png`, fullPage: true });
+      // Printed to A4 (Chromium's own print path): the bottom side starts a page of its own.
+      const pdf = await page.pdf({ path: `${SCREENSHOT_DIR}/setup-sheet.pdf`, format: 'A4', printBackground: false });
+      expect(pdf.toString('latin1').match(/\/Type\s*\/Page\b/g)?.length ?? 0).toBeGreaterThanOrEqual(2);
       await page.emulateMedia({ media: 'screen' });
 
       // The superseded revision's sheet says so.
@@ -182,7 +185,7 @@ describe('run files in Chromium', () => {
       await form.getByRole('button', { name: 'Create token' }).click();
       const token = (await page.getByTestId('new-token').textContent())!.trim();
       expect(token).toMatch(/^pwt_/);
-      await expect(page.getByRole('region', { name: 'New token' }).textContent()).resolves.toMatch(/curl -fsS -H "Authorization: Bearer pwt_/);
+      await expect(page.getByRole('region', { name: 'New token' }).textContent()).resolves.toMatch(/curl -fsS -H "Authorization: Bearer pwt_\S+" -OJ "http:\/\/127\.0\.0\.1:\d+\/api\/run-files\/[0-9a-f-]{36}\/top\.csv"/);
       await page.screenshot({ path: `${SCREENSHOT_DIR}/tokens-created.png`, fullPage: true });
 
       // The token opens the download route (and only that).

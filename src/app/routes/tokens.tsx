@@ -8,6 +8,7 @@ import { Button } from '../../components/ui/button';
 import { DataTable } from '../../components/ui/data-table';
 import { TextField } from '../../components/ui/field';
 import { Badge, ErrorPanel, PageHeader, ProgressBar } from '../../components/ui/misc';
+import { useRunFiles } from '../../features/run-files/api/run-files';
 import { CopyButton } from '../../features/run-files/components/copy-button';
 import { useCreateToken, useRevokeToken, useTokens, type CreatedToken, type CreateTokenInput } from '../../features/tokens/api/tokens';
 import { ApiError } from '../../lib/api-client';
@@ -47,7 +48,10 @@ function CreateTokenForm({ onCreated, onCancel }: { onCreated: (t: CreatedToken)
 }
 
 function NewTokenPanel({ created, onClose }: { created: CreatedToken; onClose: () => void }) {
-  const url = `${origin()}/api/run-files/<revision-id>/top.csv`;
+  // A real download URL when something is released (the newest current release), else its shape.
+  const runFiles = useRunFiles();
+  const current = runFiles.data?.find((r) => r.state === 'released' && r.files.some((f) => f.side === 'top' && f.format === 'csv'));
+  const url = `${origin()}${current ? current.files.find((f) => f.side === 'top' && f.format === 'csv')!.url : '/api/run-files/<revision-id>/top.csv'}`;
   const curl = `curl -fsS -H "Authorization: Bearer ${created.token}" -OJ "${url}"`;
   return (
     <section aria-label="New token" className="mb-6 rounded border-2 border-copper-400 bg-copper-50 p-4">
@@ -63,7 +67,9 @@ function NewTokenPanel({ created, onClose }: { created: CreatedToken; onClose: (
           <code className="num rounded bg-white px-1">/api/run-files/&lt;revision-id&gt;/top.csv</code> (also <code className="num">top.json</code>, <code className="num">bottom.csv</code>,{' '}
           <code className="num">bottom.json</code>) and nowhere else: it cannot sign in, list programs or change anything. The answer’s <code className="num">X-Content-SHA256</code> header carries the file’s checksum. Copy a revision’s download link from the Run files page.
         </p>
-        <p className="mt-2 text-xs font-medium text-ink-600">For example:</p>
+        <p className="mt-2 text-xs font-medium text-ink-600">
+          For example{current ? <>, the top CSV of {current.programName} {current.label}</> : null}:
+        </p>
         <div className="mt-1 flex items-start gap-2 rounded bg-ink-900 px-3 py-2">
           <code className="num break-all text-xs text-ink-100">{curl}</code>
           <CopyButton text={curl} label="Copy the example command" />
