@@ -67,3 +67,47 @@ export function compareBoardRefs(boardA: number, refA: string, boardB: number, r
   if (boardA !== boardB) return boardA - boardB;
   return compareRefs(refA, refB);
 }
+
+/**
+ * A string whose plain (code unit) order is the natural order of compareRefs, up to its final
+ * exact tie-break: letters lower-cased (ASCII), each digit run as \u0001, its value zero-padded to
+ * 20 digits, then a character counting its leading zeros. Null for a digit run longer than 20
+ * (then compareRefs itself must be used).
+ */
+export function naturalKey(ref: string): string | null {
+  let out = '';
+  const n = ref.length;
+  let i = 0;
+  while (i < n) {
+    const ch = ref.charCodeAt(i);
+    if (isDigit(ch)) {
+      let e = i;
+      while (e < n && isDigit(ref.charCodeAt(e))) e++;
+      let st = i;
+      while (st < e - 1 && ref.charCodeAt(st) === 48) st++;
+      const digits = ref.slice(st, e);
+      if (digits.length > 20) return null;
+      out += '\u0001' + '00000000000000000000'.slice(digits.length) + digits + String.fromCharCode(1 + st - i);
+      i = e;
+    } else {
+      out += String.fromCharCode(lower(ch));
+      i++;
+    }
+  }
+  return out;
+}
+
+/** Sort references in natural order (compareRefs), fast for long lists. */
+export function sortRefsNatural(refs: string[]): string[] {
+  const keys = new Map<string, string>();
+  for (const r of refs) {
+    const k = naturalKey(r);
+    if (k === null) return [...refs].sort(compareRefs);
+    keys.set(r, k);
+  }
+  return [...refs].sort((a, b) => {
+    const ka = keys.get(a)!;
+    const kb = keys.get(b)!;
+    return ka < kb ? -1 : ka > kb ? 1 : compareRefs(a, b);
+  });
+}

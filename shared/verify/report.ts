@@ -16,7 +16,7 @@ import {
   rectSatDepth,
   pointRectDistance,
 } from './geom';
-import { compareBoardRefs, compareRefs } from './natural';
+import { compareRefs, sortRefsNatural } from './natural';
 import {
   FindingSink,
   K_BODY,
@@ -153,7 +153,7 @@ function sortKeys(input: VerifyInput, sink: FindingSink, swap: Uint8Array): Floa
     names.add(ref[sink.a[k]]);
     if (isPairKind(raw)) names.add(ref[sink.b[k]]);
   }
-  const sorted = [...names].sort(compareRefs);
+  const sorted = sortRefsNatural([...names]);
   const rank = new Map<string, number>();
   for (let r = 0; r < sorted.length; r++) rank.set(sorted[r], r);
   const keys = new Float64Array(5 * n);

@@ -29,3 +29,22 @@ describe('natural reference order', () => {
     expect(items.map(([b, r]) => `${b}:${r}`)).toEqual(['1:Z9', '2:R2', '2:R10', '10:A1']);
   });
 });
+
+describe('natural keys agree with compareRefs', () => {
+  test('sortRefsNatural = sort(compareRefs) on random references (property)', async () => {
+    const fc = (await import('fast-check')).default;
+    const { sortRefsNatural } = await import('../../../shared/verify/natural');
+    const part = fc.oneof(
+      fc.constantFrom('R', 'C', 'U', 'r', 'LED', 'J', '-', '_', 'A', 'b'),
+      fc.integer({ min: 0, max: 20000 }).map(String),
+      fc.constantFrom('0', '007', '00', '10', '9'),
+    );
+    const ref = fc.array(part, { minLength: 1, maxLength: 5 }).map((p) => p.join(''));
+    fc.assert(
+      fc.property(fc.uniqueArray(ref, { maxLength: 40 }), (refs) => {
+        expect(sortRefsNatural(refs)).toEqual([...refs].sort(compareRefs));
+      }),
+      { numRuns: 500 },
+    );
+  });
+});
