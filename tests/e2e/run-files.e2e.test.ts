@@ -156,7 +156,10 @@ describe('run files in Chromium', () => {
       expect(colour).toBe('rgb(0, 0, 0)');
       const breaks = await page.getByRole('region', { name: 'Bottom side' }).evaluate((el) => getComputedStyle(el).breakBefore);
       expect(breaks).toBe('page');
+      // A4 less 12 mm margins each side is 186 mm ≈ 703 CSS px wide (96 px per inch).
+      await page.setViewportSize({ width: 703, height: 1000 });
       await page.screenshot({ path: `${SCREENSHOT_DIR}/setup-sheet-print.png`, fullPage: true });
+      await page.setViewportSize({ width: 1360, height: 860 });
       // Printed to A4 (Chromium's own print path): the bottom side starts a page of its own.
       const pdf = await page.pdf({ path: `${SCREENSHOT_DIR}/setup-sheet.pdf`, format: 'A4', printBackground: false });
       expect(pdf.toString('latin1').match(/\/Type\s*\/Page\b/g)?.length ?? 0).toBeGreaterThanOrEqual(2);

@@ -21,11 +21,15 @@ const PRINT_CSS = `
   .setup-sheet .side-page + .side-page { break-before: page; }
   .setup-sheet tr, .setup-sheet .sheet-box { break-inside: avoid; }
   .setup-sheet thead { display: table-header-group; }
+  .setup-sheet .text-sm, .setup-sheet td, .setup-sheet dd { font-size: 9pt !important; line-height: 1.3 !important; }
+  .setup-sheet .text-xs, .setup-sheet th, .setup-sheet dt { font-size: 7.5pt !important; }
+  .setup-sheet td, .setup-sheet th { padding: 2px 4px !important; }
 }
 `;
 
 const th = 'border-b border-ink-300 px-2 py-1 text-left text-xs font-medium text-ink-600';
 const td = 'border-b border-ink-100 px-2 py-1 align-top';
+const tdNum = `${td} num whitespace-nowrap`;
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -50,7 +54,7 @@ export function SetupSheetView({ sheet, files }: { sheet: SetupSheetDto; files?:
         {revision.state === 'superseded' && (
           <p className="mt-1 text-sm font-semibold text-sev-error">This revision is superseded. Load the current revision from Run files instead.</p>
         )}
-        <dl className="mt-3 grid grid-cols-2 gap-x-6 gap-y-2 sm:grid-cols-4">
+        <dl className="mt-3 grid grid-cols-2 gap-x-6 gap-y-2 sm:grid-cols-4 print:grid-cols-4">
           <Fact label="Program">{program.name}</Fact>
           <Fact label="Product">{program.product}</Fact>
           <Fact label="Board">{program.board}</Fact>
@@ -58,7 +62,7 @@ export function SetupSheetView({ sheet, files }: { sheet: SetupSheetDto; files?:
             <span className="num">{revision.label}</span> <Badge tone={revision.state === 'released' ? 'mask' : 'neutral'}>{revision.state}</Badge>
           </Fact>
           <Fact label="Released">
-            <span className="num">{dateTime(revision.releasedAt)}</span>
+            <span className="num whitespace-nowrap">{dateTime(revision.releasedAt)}</span>
           </Fact>
           <Fact label="Sides">{sides.map((s) => sideLabel(s.side)).join(' and ') || '—'}</Fact>
         </dl>
@@ -83,7 +87,7 @@ export function SetupSheetView({ sheet, files }: { sheet: SetupSheetDto; files?:
         <ChecksumNote />
       </section>
 
-      <div className="mb-4 grid gap-4 md:grid-cols-2">
+      <div className="mb-4 grid gap-4 md:grid-cols-2 print:grid-cols-2">
         <section aria-label="Machine" className="sheet-box rounded border border-ink-200 p-3">
           <h2 className="mb-1 text-sm font-semibold">Machine profile</h2>
           {machine ? (
@@ -122,7 +126,7 @@ export function SetupSheetView({ sheet, files }: { sheet: SetupSheetDto; files?:
               </span>
             </h2>
 
-            <div className="mt-3 grid gap-4 md:grid-cols-3">
+            <div className="mt-3 grid gap-4 md:grid-cols-3 print:grid-cols-3">
               <div className="sheet-box">
                 <h3 className="mb-1 text-sm font-semibold">Fiducials</h3>
                 {list.fiducials.length ? (
@@ -138,8 +142,8 @@ export function SetupSheetView({ sheet, files }: { sheet: SetupSheetDto; files?:
                       {list.fiducials.map((f) => (
                         <tr key={f.name}>
                           <td className={`${td} num`}>{f.name}</td>
-                          <td className={`${td} num text-right`}>{mm(f.x)}</td>
-                          <td className={`${td} num text-right`}>{mm(f.y)}</td>
+                          <td className={`${tdNum} text-right`}>{mm(f.x)}</td>
+                          <td className={`${tdNum} text-right`}>{mm(f.y)}</td>
                         </tr>
                       ))}
                     </tbody>
@@ -209,9 +213,9 @@ export function SetupSheetView({ sheet, files }: { sheet: SetupSheetDto; files?:
                   <tr key={`${g.package}|${g.value}`}>
                     <td className={`${td} num whitespace-nowrap`}>{g.package}</td>
                     <td className={`${td} whitespace-nowrap`}>{g.value || '—'}</td>
-                    <td className={`${td} num text-xs`}>{g.partNumbers.join(', ') || '—'}</td>
+                    <td className={`${tdNum} text-xs`}>{g.partNumbers.join(', ') || '—'}</td>
                     <td className={`${td} num`}>{g.nozzle ?? '—'}</td>
-                    <td className={`${td} num text-xs`}>{g.vision ?? '—'}</td>
+                    <td className={`${tdNum} text-xs`}>{g.vision ?? '—'}</td>
                     <td className={`${td} num text-right`}>{perBoardText(g)}</td>
                     <td className={`${td} num text-right font-semibold`}>{g.perPanel}</td>
                     <td className={`${td} num text-xs text-ink-600`}>{g.refs.join(' ')}</td>
