@@ -16,7 +16,7 @@ import {
   rectSatDepth,
   pointRectDistance,
 } from './geom';
-import { compareRefs, sortRefsNatural } from './natural';
+import { sortRefsNatural } from './natural';
 import {
   FindingSink,
   K_BODY,
@@ -446,4 +446,3 @@ function polyOrPoint(pts: [number, number][], x: number, y: number): FindingGeom
   return { type: 'point', x, y };
 }
 
-export { compareRefs };
