@@ -84,16 +84,26 @@ export const commentInputSchema = z.object({
   text: z.string().trim().min(1, 'Write something').max(4000),
 });
 
-export const underlayInputSchema = z.object({
-  underlay: z
-    .object({
-      dataUrl: z.string().regex(/^data:image\/(png|jpeg|webp);base64,/, 'A PNG, JPEG or WebP image').max(8_000_000, 'Images up to about 6 MB'),
-      matrix: z.tuple([z.tuple([z.number(), z.number(), z.number()]), z.tuple([z.number(), z.number(), z.number()])]),
-      opacity: z.number().min(0).max(1),
-      side: z.enum(['top', 'bottom']).default('top'),
-    })
-    .nullable(),
+/** An image under the canvas: a photo or render of the board, aligned to the output frame. */
+export const underlaySchema = z.object({
+  dataUrl: z.string().regex(/^data:image\/(png|jpeg|webp);base64,/, 'A PNG, JPEG or WebP image').max(8_000_000, 'Images up to about 6 MB'),
+  name: z.string().max(255),
+  /** image size, px */
+  width: z.number().int().positive(),
+  height: z.number().int().positive(),
+  /** image pixel (u right, v down) → output frame mm */
+  transform: z.object({ a: z.number(), b: z.number(), c: z.number(), d: z.number(), tx: z.number(), ty: z.number() }),
+  opacity: z.number().min(0).max(1),
 });
+export type Underlay = z.infer<typeof underlaySchema>;
+
+export const underlayInputSchema = z.object({
+  side: z.enum(['top', 'bottom']),
+  underlay: underlaySchema.nullable(),
+});
+
+export const underlaysSchema = z.object({ top: underlaySchema.nullable().optional(), bottom: underlaySchema.nullable().optional() });
+export type Underlays = z.infer<typeof underlaysSchema>;
 
 export const problemReportInputSchema = z.object({
   text: z.string().trim().min(10, 'Describe the problem (at least 10 characters)').max(4000),

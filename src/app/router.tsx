@@ -17,6 +17,15 @@ const NotFoundRoute = lazy(() => import('./routes/not-found'));
 const RunFilesRoute = lazy(() => import('./routes/run-files/index'));
 const SetupSheetRoute = lazy(() => import('./routes/run-files/setup-sheet'));
 const TokensRoute = lazy(() => import('./routes/tokens'));
+const ProgramsRoute = lazy(() => import('./routes/programs/list'));
+const ProgramRoute = lazy(() => import('./routes/programs/program'));
+const WorkspaceRoute = lazy(() => import('./routes/programs/workspace'));
+const ImportStage = lazy(() => import('./routes/programs/stages/import'));
+const PanelizeStage = lazy(() => import('./routes/programs/stages/panelize'));
+const AlignStage = lazy(() => import('./routes/programs/stages/align'));
+const AssignStage = lazy(() => import('./routes/programs/stages/assign'));
+const VerifyStage = lazy(() => import('./routes/programs/stages/verify'));
+const ReleaseStage = lazy(() => import('./routes/programs/stages/release'));
 
 function Loading() {
   return (
@@ -67,6 +76,21 @@ export const routes = [
       { path: 'run-files', element: page(<RequireRole roles={['operator', 'engineer']}><RunFilesRoute /></RequireRole>) },
       { path: 'run-files/:revisionId/setup-sheet', element: page(<RequireRole roles={['operator', 'engineer']}><SetupSheetRoute /></RequireRole>) },
       { path: 'tokens', element: page(<RequireRole roles={['engineer']}><TokensRoute /></RequireRole>) },
+      { path: 'programs', element: page(<RequireRole roles={['engineer']}><ProgramsRoute /></RequireRole>) },
+      { path: 'programs/:programId', element: page(<RequireRole roles={['engineer']}><ProgramRoute /></RequireRole>) },
+      {
+        path: 'programs/revisions/:revisionId',
+        element: page(<RequireRole roles={['engineer']}><WorkspaceRoute /></RequireRole>),
+        children: [
+          { index: true, element: <Navigate to="import" replace /> },
+          { path: 'import', element: page(<ImportStage />) },
+          { path: 'panelize', element: page(<PanelizeStage />) },
+          { path: 'align', element: page(<AlignStage />) },
+          { path: 'assign', element: page(<AssignStage />) },
+          { path: 'verify', element: page(<VerifyStage />) },
+          { path: 'release', element: page(<ReleaseStage />) },
+        ],
+      },
       libraryRoute,
       { path: '*', element: page(<NotFoundRoute />) },
     ],

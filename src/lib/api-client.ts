@@ -29,6 +29,44 @@ export function setCsrfToken(token: string | null) {
   csrfToken = token;
 }
 
+/** The CSRF token for a request made outside api() (e.g. an upload with progress). */
+export async function getCsrfToken(): Promise<string> {
+  return csrfToken ?? fetchCsrfToken();
+}
+
+/**
+ * POSTs a multipart form with upload progress (fetch cannot report it). Resolves with the parsed
+ * JSON; rejects with ApiError carrying the server's problem body.
+ */
+export async function uploadForm<S extends z.ZodType>(path: string, form: FormData, opts: { schema?: S; onProgress?: (fraction: number) => void } = {}): Promise<z.infer<S>> {
+  const token = await getCsrfToken();
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', `/api${path}`);
+    xhr.setRequestHeader('X-CSRF-Token', token);
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) opts.onProgress?.(e.loaded / e.total);
+    };
+    xhr.onerror = () => reject(new ApiError({ status: 0, title: 'No connection', detail: 'The upload did not reach the server. Check your connection and try again.', errors: [] }));
+    xhr.onload = () => {
+      let body: unknown = null;
+      try {
+        body = xhr.responseText ? JSON.parse(xhr.responseText) : null;
+      } catch {
+        /* not JSON */
+      }
+      if (xhr.status >= 200 && xhr.status < 300) {
+        resolve(opts.schema ? opts.schema.parse(body) : (body as z.infer<S>));
+      } else {
+        const p = problemSchema.safeParse(body);
+        reject(new ApiError(p.success ? p.data : { status: xhr.status, title: 'Error', detail: `The server answered ${xhr.status}.`, errors: [] }));
+      }
+    };
+    xhr.send(form);
+  });
+}
+
 interface RequestOptions<S extends z.ZodType> {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
   body?: unknown;

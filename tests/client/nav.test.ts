@@ -3,9 +3,10 @@ import { navFor } from '../../src/app/nav';
 
 describe('navigation per role', () => {
   it.each([
-    [['operator'], ['/', '/account']],
-    [['engineer'], ['/', '/account']],
-    [['admin'], ['/', '/account', '/admin/users', '/admin/audit', '/admin/outbox']],
+    [['operator'], ['/', '/library', '/run-files', '/account']],
+    [['librarian'], ['/', '/library', '/account']],
+    [['engineer'], ['/', '/programs', '/library', '/run-files', '/panel-preview', '/tokens', '/account']],
+    [['admin'], ['/', '/programs', '/library', '/run-files', '/panel-preview', '/tokens', '/account', '/admin/users', '/admin/audit', '/admin/outbox']],
   ] as const)('%j sees %j', (roles, paths) => {
     expect(navFor(roles).map((n) => n.to)).toEqual(paths);
   });

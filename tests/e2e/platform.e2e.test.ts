@@ -9,10 +9,10 @@ beforeAll(async () => {
 afterAll(() => h?.close());
 
 const EXPECTED_NAV: Record<string, string[]> = {
-  admin: ['Home', 'Account', 'Users', 'Audit log', 'Outbox'],
-  engineer: ['Home', 'Account'],
-  librarian: ['Home', 'Account'],
-  operator: ['Home', 'Account'],
+  admin: ['Home', 'Programs', 'Library', 'Run files', 'Panel preview', 'Line access', 'Account', 'Users', 'Audit log', 'Outbox'],
+  engineer: ['Home', 'Programs', 'Library', 'Run files', 'Panel preview', 'Line access', 'Account'],
+  librarian: ['Home', 'Library', 'Account'],
+  operator: ['Home', 'Library', 'Run files', 'Account'],
 };
 
 describe('signing in as each demo role in Chromium', () => {
@@ -56,6 +56,7 @@ describe('signing in as each demo role in Chromium', () => {
       await form.getByLabel('Name').fill('Mira Solberg');
       await form.getByLabel('E-mail').fill('mira@harrowcreek.example');
       await form.getByLabel('First password').fill('a-first-password');
+      await form.getByLabel('Engineer').uncheck();
       await form.getByLabel('Operator').check();
       await form.getByRole('button', { name: 'Create user' }).click();
       await page.getByRole('cell', { name: 'mira@harrowcreek.example' }).waitFor();

@@ -153,7 +153,7 @@ describe('programs: upload → release → download', () => {
       author.a.post(`/api/revisions/${revId}/submit`).set('X-CSRF-Token', t),
       author.a.post(`/api/revisions/${revId}/waivers`).set('X-CSRF-Token', t).send({ key: 'x', reason: 'because it is so' }),
       author.a.post(`/api/revisions/${revId}/comments`).set('X-CSRF-Token', t).send({ side: 'top', text: 'late note' }),
-      author.a.put(`/api/revisions/${revId}/underlay`).set('X-CSRF-Token', t).send({ underlay: null }),
+      author.a.put(`/api/revisions/${revId}/underlay`).set('X-CSRF-Token', t).send({ side: 'top', underlay: null }),
       author.a.post(`/api/revisions/${revId}/withdraw`).set('X-CSRF-Token', t),
       upload(author, revId, sampleFile('led-strip/led-strip.csv'), 'led-strip.csv'),
     ];

@@ -152,11 +152,11 @@ export function registerProgramRoutes(api: ApiRoutes, programs: ProgramService, 
   });
 
   api.get('/revisions/:id/underlay', eng, validate(uuidParamSchema, 'params'), async (req, res) => {
-    res.json({ underlay: await programs.getUnderlay(id(req)) });
+    res.json(await programs.getUnderlays(id(req)));
   });
 
   api.put('/revisions/:id/underlay', eng, validate(uuidParamSchema, 'params'), validate(underlayInputSchema), async (req, res) => {
-    await programs.setUnderlay(id(req), req.body.underlay, userOf(req), ip(req));
+    await programs.setUnderlay(id(req), req.body.side, req.body.underlay, userOf(req), ip(req));
     res.status(204).end();
   });
 

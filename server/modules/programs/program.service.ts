@@ -535,19 +535,19 @@ export class ProgramService {
     });
   }
 
-  async setUnderlay(revisionId: string, underlay: Record<string, unknown> | null, user: ServiceUser, ip: string | null) {
+  async setUnderlay(revisionId: string, side: Side, underlay: Record<string, unknown> | null, user: ServiceUser, ip: string | null) {
     await this.ds.transaction(async (m) => {
       const r = await this.getRevisionEntity(revisionId, m, true);
-      this.assertEditable(r, 'given an underlay');
-      r.underlay = underlay;
+      if (r.state !== 'draft' && r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is ${r.state}: its underlay cannot change.`);
+      r.underlay = { ...(r.underlay ?? {}), [side]: underlay };
       await m.getRepository(ProgramRevision).save(r);
-      await this.deps.audit.record(user, 'revision.underlay', await this.label(r, m), { set: underlay !== null }, ip, m);
+      await this.deps.audit.record(user, 'revision.underlay', await this.label(r, m), { side, set: underlay !== null }, ip, m);
     });
   }
 
-  async getUnderlay(revisionId: string) {
+  async getUnderlays(revisionId: string): Promise<Record<string, unknown>> {
     const r = await this.getRevisionEntity(revisionId);
-    return r.underlay;
+    return r.underlay ?? {};
   }
 }
 

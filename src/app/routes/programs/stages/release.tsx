@@ -1,0 +1,139 @@
+import { useState } from 'react';
+import { useNavigate } from 'react-router-dom';
+import { toast } from 'sonner';
+import { Button } from '../../../../components/ui/button';
+import { Badge } from '../../../../components/ui/misc';
+import { useApprove, useNewRevision, useReject, useSubmit, useWithdraw } from '../../../../features/programs/api/programs';
+import { RevisionCanvas } from '../../../../features/programs/components/revision-canvas';
+import { dateTime } from '../../../../lib/format';
+import { useWorkspace } from '../workspace';
+
+function Comments() {
+  const { revision: r } = useWorkspace();
+  const notes = r.comments.filter((c) => c.kind === 'comment');
+  return (
+    <section aria-label="Review comments" className="rounded border border-ink-200 bg-white p-4">
+      <h2 className="mb-2 font-semibold">Review comments</h2>
+      {notes.length === 0 ? (
+        <p className="text-sm text-ink-500">No comments. Pin one on the canvas with the note tool.</p>
+      ) : (
+        <ol className="flex flex-col gap-2 text-sm">
+          {notes.map((c) => (
+            <li key={c.id}>
+              <span className="text-xs text-ink-500">{c.userEmail}, {dateTime(c.at)}{c.x !== null && c.y !== null && <span className="num"> · {c.side} at {c.x.toFixed(3)}, {c.y.toFixed(3)} mm</span>}</span>
+              <p>{c.text}</p>
+            </li>
+          ))}
+        </ol>
+      )}
+    </section>
+  );
+}
+
+function Decision() {
+  const { revision: r } = useWorkspace();
+  const approve = useApprove(r.id);
+  const reject = useReject(r.id);
+  const [comment, setComment] = useState('');
+  const waived = new Set(r.waivers.map((w) => w.findingKey));
+  const open = (r.findings ?? []).filter((f) => f.severity === 'error' && !waived.has(f.key));
+  const checkedKeys = new Set(r.comments.filter((c) => c.kind === 'checked' && c.findingKey).map((c) => c.findingKey!));
+  return (
+    <section aria-label="Decision" className="flex flex-col gap-3 rounded border border-copper-300 bg-white p-4">
+      <h2 className="font-semibold">Your review</h2>
+      <p className="text-sm text-ink-600">
+        Look at both sides on the canvas: polarity marks, the bottom side's rotations, crowded corners, fiducials. {r.findings?.length ?? 0} findings ({r.waivers.length} waived, {checkedKeys.size} marked checked).
+      </p>
+      {open.length > 0 && <p role="alert" className="rounded bg-sev-error/10 px-2 py-1 text-sm text-sev-error">{open.length} error finding{open.length === 1 ? '' : 's'} neither fixed nor waived: approval is not possible. Reject it back to the author.</p>}
+      <label htmlFor="review-comment" className="text-xs font-medium text-ink-700">Comment (required to reject; sent to the author)</label>
+      <textarea id="review-comment" rows={3} value={comment} onChange={(e) => setComment(e.target.value)} className="rounded border border-ink-300 p-2 text-sm" />
+      <div className="flex gap-2">
+        <Button disabled={open.length > 0 || approve.isPending} onClick={() => approve.mutate(comment, { onSuccess: () => toast.success('Released. Operators were told by e-mail.'), onError: (e) => toast.error(e.message) })}>
+          {approve.isPending ? 'Releasing…' : 'Approve and release'}
+        </Button>
+        <Button variant="danger" disabled={comment.trim().length < 3 || reject.isPending} onClick={() => reject.mutate(comment, { onSuccess: () => toast.success('Sent back to the author.'), onError: (e) => toast.error(e.message) })}>
+          Reject with comment
+        </Button>
+      </div>
+    </section>
+  );
+}
+
+export default function ReleaseStage() {
+  const { revision: r } = useWorkspace();
+  const submit = useSubmit(r.id);
+  const withdraw = useWithdraw(r.id);
+  const newRev = useNewRevision(r.programId);
+  const navigate = useNavigate();
+  const waived = new Set(r.waivers.map((w) => w.findingKey));
+  const openErrors = (r.findings ?? []).filter((f) => f.severity === 'error' && !waived.has(f.key)).length;
+  const missing = [!r.imported && 'import a centroid file', !(r.settings.board && r.settings.panel) && 'set the panel', !r.findingsSummary && 'run the checks', openErrors > 0 && `fix or waive ${openErrors} error finding${openErrors === 1 ? '' : 's'}`].filter(Boolean) as string[];
+
+  return (
+    <div className="flex flex-col gap-5">
+      <ol aria-label="Release steps" className="flex flex-wrap items-center gap-2 text-sm">
+        {(['draft', 'in-review', 'released'] as const).map((s, i) => (
+          <li key={s} className={`rounded px-3 py-1 ${r.state === s ? 'bg-ink-800 text-white' : 'bg-white ring-1 ring-ink-200 text-ink-600'}`}>
+            <span className="num mr-1 text-xs">{i + 1}</span>{s === 'draft' ? 'Draft' : s === 'in-review' ? 'In review' : 'Released'}
+          </li>
+        ))}
+      </ol>
+
+      {r.reviewComment && r.state === 'draft' && (
+        <div role="note" className="rounded border border-sev-warning/60 bg-sev-warning/10 p-3 text-sm">
+          <p className="font-medium">Changes requested by {r.reviewer?.name ?? 'the reviewer'} ({dateTime(r.reviewedAt)})</p>
+          <p className="mt-1 whitespace-pre-wrap">{r.reviewComment}</p>
+        </div>
+      )}
+
+      {r.state === 'draft' && r.can.submit && (
+        <section aria-label="Submit" className="flex flex-col gap-2 rounded border border-ink-200 bg-white p-4">
+          <h2 className="font-semibold">Submit for review</h2>
+          {missing.length ? <p className="text-sm text-ink-600">Before submitting: {missing.join('; ')}.</p> : <p className="text-sm text-ink-600">Another engineer reviews the panel on the canvas and releases it. Engineers are told by e-mail.</p>}
+          <div className="flex gap-2">
+            <Button disabled={missing.length > 0 || submit.isPending} onClick={() => submit.mutate(undefined, { onSuccess: () => toast.success('Submitted for review.'), onError: (e) => toast.error(e.message) })}>Submit for review</Button>
+            <Button variant="ghost" onClick={() => confirm(`Withdraw revision ${r.label}? It cannot be reopened.`) && withdraw.mutate(undefined, { onError: (e) => toast.error(e.message) })}>Withdraw</Button>
+          </div>
+        </section>
+      )}
+
+      {r.state === 'in-review' && !r.can.review && (
+        <section className="rounded border border-ink-200 bg-white p-4 text-sm">
+          <p>Submitted {dateTime(r.submittedAt)}. Waiting for review by another engineer — the author cannot approve their own revision.</p>
+          {r.can.withdraw && <Button variant="ghost" className="mt-2" onClick={() => confirm(`Withdraw revision ${r.label}?`) && withdraw.mutate(undefined, { onError: (e) => toast.error(e.message) })}>Withdraw</Button>}
+        </section>
+      )}
+      {r.state === 'in-review' && r.can.review && <Decision />}
+
+      {(r.state === 'released' || r.state === 'superseded') && (
+        <section aria-label="Released files" className="flex flex-col gap-3 rounded border border-mask-400/60 bg-white p-4">
+          <h2 className="font-semibold">{r.state === 'released' ? 'Released' : 'Superseded'} {dateTime(r.releasedAt)} · reviewed by {r.reviewer?.name ?? '—'}</h2>
+          {r.reviewComment && <p className="text-sm text-ink-700">“{r.reviewComment}”</p>}
+          <ul className="flex flex-col gap-2">
+            {r.releaseFiles.map((f) => (
+              <li key={f.url} className="flex flex-wrap items-center gap-3 text-sm">
+                <Badge tone="mask">{f.side}</Badge>
+                <a href={f.url} className="font-medium text-copper-700 underline" download>{f.format.toUpperCase()}</a>
+                <span className="num text-xs text-ink-500">{f.placements} placements · {(f.bytes / 1024).toFixed(1)} KB</span>
+                <span className="num break-all text-xs">SHA-256 {f.sha256}</span>
+              </li>
+            ))}
+          </ul>
+          {r.can.newRevision && (
+            <Button className="self-start" disabled={newRev.isPending} onClick={() => newRev.mutate(undefined, { onSuccess: (n) => navigate(`/programs/revisions/${n.id}/import`), onError: (e) => toast.error(e.message) })}>
+              Start revision from {r.label}
+            </Button>
+          )}
+        </section>
+      )}
+
+      {r.state !== 'withdrawn' && (r.state === 'in-review' || r.state === 'released' || r.state === 'superseded') && (
+        <section aria-label="Canvas" className="flex flex-col gap-2">
+          <h2 className="font-semibold">Panel review</h2>
+          <RevisionCanvas r={r} />
+        </section>
+      )}
+      <Comments />
+    </div>
+  );
+}

@@ -1,0 +1,125 @@
+import { useMemo, useState } from 'react';
+import { toast } from 'sonner';
+import type { Finding } from '../../../../../shared/schemas/finding.schema';
+import { Button } from '../../../../components/ui/button';
+import { TextField } from '../../../../components/ui/field';
+import { Badge, EmptyState, ProgressBar } from '../../../../components/ui/misc';
+import { useRunChecks, useUnwaive, useWaive } from '../../../../features/programs/api/programs';
+import { RevisionCanvas } from '../../../../features/programs/components/revision-canvas';
+import { dateTime, mm } from '../../../../lib/format';
+import { useWorkspace } from '../workspace';
+
+const KIND_LABELS: Record<string, string> = {
+  'body-overlap': 'Bodies overlap',
+  'courtyard-overlap': 'Courtyards overlap',
+  'off-board': 'Part off its board',
+  'board-overlap': 'Boards overlap',
+  'off-panel': 'Board off the panel',
+  'fiducial-clearance': 'Part in a fiducial’s clear area',
+  'nozzle-shadow': 'Taller neighbour near the nozzle',
+  'out-of-reach': 'Out of the machine’s reach',
+  'no-package': 'No package',
+  'no-nozzle': 'No nozzle on the machine',
+};
+
+function WaiveForm({ finding, onDone }: { finding: Finding; onDone: () => void }) {
+  const { revision: r } = useWorkspace();
+  const waive = useWaive(r.id);
+  const [reason, setReason] = useState('');
+  return (
+    <form
+      className="mt-2 flex items-end gap-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        waive.mutate({ key: finding.key, reason }, { onSuccess: () => { toast.success('Waived.'); onDone(); }, onError: (err) => toast.error(err.message) });
+      }}
+    >
+      <TextField className="flex-1" label="Why is this acceptable?" value={reason} onChange={(e) => setReason(e.target.value)} error={reason && reason.trim().length < 5 ? 'At least 5 characters' : undefined} autoFocus />
+      <Button type="submit" disabled={reason.trim().length < 5 || waive.isPending}>Waive</Button>
+      <Button variant="ghost" onClick={onDone}>Cancel</Button>
+    </form>
+  );
+}
+
+export default function VerifyStage() {
+  const { revision: r } = useWorkspace();
+  const checks = useRunChecks(r.id);
+  const unwaive = useUnwaive(r.id);
+  const [waiving, setWaiving] = useState<string | null>(null);
+  const [openKinds, setOpenKinds] = useState<Set<string>>(new Set());
+  const waivers = useMemo(() => new Map(r.waivers.map((w) => [w.findingKey, w])), [r.waivers]);
+  const groups = useMemo(() => {
+    const m = new Map<string, Finding[]>();
+    for (const f of r.findings ?? []) m.set(f.kind, [...(m.get(f.kind) ?? []), f]);
+    return [...m].sort((a, b) => (a[1][0].severity === b[1][0].severity ? a[0].localeCompare(b[0]) : a[1][0].severity === 'error' ? -1 : 1));
+  }, [r.findings]);
+  const openErrors = (r.findings ?? []).filter((f) => f.severity === 'error' && !waivers.has(f.key)).length;
+  const canRun = !!(r.imported && r.settings.board && r.settings.panel);
+
+  if (!canRun) return <EmptyState title="Nothing to check yet">Import a centroid file and set the panel first.</EmptyState>;
+  return (
+    <div className="flex flex-col gap-5">
+      <section aria-label="Checks" className="flex flex-wrap items-center gap-4 rounded border border-ink-200 bg-white p-4">
+        {r.can.edit && (
+          <Button disabled={checks.isPending} onClick={() => checks.mutate(undefined, { onSuccess: () => toast.success('Checks done.'), onError: (e) => toast.error(e.message) })}>
+            {checks.isPending ? 'Checking…' : r.findingsSummary ? 'Run the checks again' : 'Run the checks'}
+          </Button>
+        )}
+        {checks.isPending && <div className="w-64"><ProgressBar label="Checking the panel" /></div>}
+        {r.findingsSummary ? (
+          <p className="num text-sm">
+            <span className={r.findingsSummary.errors ? 'text-sev-error' : 'text-mask-600'}>{r.findingsSummary.errors} errors</span> · <span>{r.findingsSummary.warnings} warnings</span> · {r.findingsSummary.placements} placements checked in {(r.findingsSummary.seconds * 1000).toFixed(0)} ms · {dateTime(r.checkedAt)}
+            {openErrors > 0 ? <span className="ml-2 text-sev-error">— {openErrors} error{openErrors === 1 ? '' : 's'} to fix or waive before release</span> : <span className="ml-2 text-mask-600">— nothing blocks release</span>}
+          </p>
+        ) : (
+          <p className="text-sm text-ink-500">Not checked since the last change. Checks look for overlapping bodies and courtyards, parts off their board, fiducial clear areas, taller neighbours near the nozzle, reach, and missing packages or nozzles.</p>
+        )}
+      </section>
+
+      {r.findings && r.findings.length > 0 && (
+        <section aria-label="Findings by kind" className="flex flex-col gap-2">
+          {groups.map(([kind, list]) => {
+            const open = openKinds.has(kind);
+            return (
+              <div key={kind} className="rounded border border-ink-200 bg-white">
+                <button type="button" aria-expanded={open} onClick={() => setOpenKinds((s) => { const n = new Set(s); if (n.has(kind)) n.delete(kind); else n.add(kind); return n; })} className="flex w-full items-center gap-3 px-4 py-2 text-left">
+                  <Badge tone={list[0].severity === 'error' ? 'error' : 'warning'}>{list[0].severity}</Badge>
+                  <span className="font-medium">{KIND_LABELS[kind] ?? kind}</span>
+                  <span className="num text-xs text-ink-500">{list.length} · {list.filter((f) => waivers.has(f.key)).length} waived</span>
+                  <span className="ml-auto text-ink-400">{open ? '▾' : '▸'}</span>
+                </button>
+                {open && (
+                  <ul className="divide-y divide-ink-100 border-t border-ink-100">
+                    {list.slice(0, 500).map((f) => {
+                      const w = waivers.get(f.key);
+                      return (
+                        <li key={f.key} className="px-4 py-2 text-sm">
+                          <div className="flex items-start gap-3">
+                            <span className="flex-1">{f.message}{f.depth !== null && <span className="num ml-2 text-xs text-ink-500">depth {mm(f.depth)}</span>}</span>
+                            {w ? (
+                              <span className="text-xs text-ink-600">Waived by {w.userEmail}, {dateTime(w.at)}: <em>{w.reason}</em>{r.can.edit && <button type="button" className="ml-2 text-copper-700 underline" onClick={() => unwaive.mutate(w.id, { onError: (e) => toast.error(e.message) })}>remove</button>}</span>
+                            ) : (
+                              r.can.edit && waiving !== f.key && <Button variant="secondary" className="px-2 py-0.5 text-xs" onClick={() => setWaiving(f.key)}>Waive…</Button>
+                            )}
+                          </div>
+                          {waiving === f.key && <WaiveForm finding={f} onDone={() => setWaiving(null)} />}
+                        </li>
+                      );
+                    })}
+                    {list.length > 500 && <li className="px-4 py-2 text-xs text-ink-500">…and {list.length - 500} more; filter them on the canvas below.</li>}
+                  </ul>
+                )}
+              </div>
+            );
+          })}
+        </section>
+      )}
+      {r.findings && r.findings.length === 0 && <p className="rounded border border-mask-400/50 bg-mask-400/10 p-3 text-sm">No findings: the panel is clean.</p>}
+
+      <section aria-label="Canvas" className="flex flex-col gap-2">
+        <h2 className="font-semibold">On the panel</h2>
+        <RevisionCanvas r={r} />
+      </section>
+    </div>
+  );
+}
