@@ -35,6 +35,8 @@ const KNOWN: Record<string, RouteDoc> = {
   'POST /revisions/:id/submit': { summary: 'Submit a revision for review', response: revisionDetailSchema },
   'POST /revisions/:id/approve': { summary: 'Approve and release a revision (reviewer other than the author)', response: revisionDetailSchema },
   'POST /revisions/:id/reject': { summary: 'Send a revision back to its author', response: revisionDetailSchema },
+  'POST /revisions/:id/centroid/preview': { summary: 'Read a centroid file and show how it would import, without saving', request: { contentType: 'multipart/form-data', schema: z.object({ file: z.string().meta({ contentMediaType: 'text/csv' }), options: z.string().optional().describe('the import options, as JSON') }) } },
+  'POST /revisions/:id/centroid': { summary: 'Import a centroid file into a draft revision', response: revisionDetailSchema, request: { contentType: 'multipart/form-data', schema: z.object({ file: z.string().meta({ contentMediaType: 'text/csv' }), options: z.string().optional().describe('the import options, as JSON'), version: z.string().describe('the revision version you saw') }) } },
   'GET /run-files': { summary: 'Released and superseded revisions with their run files, newest release first', response: z.object({ items: z.array(runFileSchema) }) },
   'GET /run-files/:id/setup-sheet': { summary: 'What the printable set-up sheet of a released revision shows', response: setupSheetSchema },
   'GET /run-files/:id/:file': {
@@ -136,6 +138,7 @@ function operation(spec: RouteSpec, handlers: RequestHandler[] | undefined): Jso
 
   const body = validations.find((v) => v.part === 'body');
   if (body) op.requestBody = { required: true, content: { 'application/json': { schema: jsonSchema(body.schema, 'input') } } };
+  else if (meta.request) op.requestBody = { required: true, content: { [meta.request.contentType]: { schema: jsonSchema(meta.request.schema, 'input') } } };
 
   const status = String(meta.status ?? (spec.method === 'DELETE' ? 204 : 200));
   const ok: Json = { description: meta.summary ?? 'Success' };

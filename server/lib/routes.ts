@@ -88,6 +88,8 @@ export interface RouteDoc {
   response?: z.ZodType;
   /** a success body that is not JSON (e.g. `text/csv`) */
   responseContentType?: string;
+  /** a request body validate() does not see (e.g. multipart uploads) */
+  request?: { contentType: string; schema: z.ZodType };
 }
 
 /**

@@ -102,8 +102,15 @@ describe('GET /api/openapi.json', () => {
 
     // POST /tokens: createTokenInputSchema.
     expect(op('POST', '/tokens').requestBody.content['application/json'].schema.required).toEqual(['name']);
+    // Uploads are described as multipart forms.
+    const upload = op('POST', '/revisions/:id/centroid').requestBody.content['multipart/form-data'].schema;
+    expect(upload.required.sort()).toEqual(['file', 'version']);
     // Routes without validation have no request body.
     expect(op('GET', '/run-files').requestBody).toBeUndefined();
+  });
+
+  it('has no schema that zod could not represent', () => {
+    expect(JSON.stringify(doc)).not.toMatch(/Not representable/);
   });
 
   it('carries response schemas where they are named, and the problem body', () => {
