@@ -13,7 +13,7 @@ export default async function setup(project: TestProject) {
   const url = await prepareTestDatabase(process.env.PW_E2E_DB_NAME ?? 'placewright_e2e');
   const ds = createDataSource(url);
   await ds.initialize();
-  await seedDemo(ds);
+  await seedDemo(ds, () => {}, { programs: false });
   await ds.destroy();
   if (!existsSync('dist/client/index.html') || process.env.PW_E2E_REBUILD === '1') {
     execFileSync('npx', ['vite', 'build', '--logLevel', 'error'], { stdio: 'inherit' });

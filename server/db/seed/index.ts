@@ -4,9 +4,10 @@ import { User } from '../entities/user.entity';
 import { BCRYPT_COST } from '../../modules/users/user.service';
 import { DEMO_PASSWORD, DEMO_USERS } from './demo-users';
 import { seedStarterLibrary } from './starter-library';
+import { seedDemoPrograms } from './demo-programs';
 
 /** Idempotent: creates what is missing, leaves what exists (a changed password stays changed). */
-export async function seedDemo(ds: DataSource, log: (s: string) => void = () => {}): Promise<void> {
+export async function seedDemo(ds: DataSource, log: (s: string) => void = () => {}, opts: { programs?: boolean } = {}): Promise<void> {
   const repo = ds.getRepository(User);
   const hash = await bcrypt.hash(DEMO_PASSWORD, BCRYPT_COST);
   for (const u of DEMO_USERS) {
@@ -16,4 +17,6 @@ export async function seedDemo(ds: DataSource, log: (s: string) => void = () => 
     log(`created demo user ${u.email}`);
   }
   await seedStarterLibrary(ds, log);
+  // The demo programs (one released, one in review); browser tests start without them.
+  if (opts.programs !== false) await seedDemoPrograms(ds, log);
 }
