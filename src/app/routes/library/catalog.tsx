@@ -28,6 +28,7 @@ import { useAliases, useCreateAlias, useDeleteAlias } from '../../../features/li
 import { useCreateMachine, useDeleteMachine, useMachines, useUpdateMachine } from '../../../features/library/api/machines';
 import { useCreateNozzle, useDeleteNozzle, useNozzles, useUpdateNozzle } from '../../../features/library/api/nozzles';
 import { usePackages } from '../../../features/library/api/packages';
+import { useCreateProposal } from '../../../features/library/api/proposals';
 import { matchFootprint } from '../../../features/library/api/transfer';
 import { useCreateVisionPreset, useDeleteVisionPreset, useUpdateVisionPreset, useVisionPresets } from '../../../features/library/api/vision-presets';
 import { splitList } from '../../../features/library/components/package-form';
@@ -75,6 +76,7 @@ export function AliasesRoute() {
   const pkgs = usePackages();
   const access = useLibraryAccess();
   const add = useCreateAlias();
+  const propose = useCreateProposal();
   const del = useDeleteAlias();
   const [pattern, setPattern] = useState('');
   const [packageId, setPackageId] = useState('');
@@ -93,13 +95,14 @@ export function AliasesRoute() {
   return (
     <div className="flex flex-col gap-4">
       <MatchTester />
-      {access.canEdit && (
+      {(access.canEdit || access.canPropose) && (
         <form
-          aria-label="New alias"
+          aria-label={access.canEdit ? 'New alias' : 'Propose an alias'}
           className="flex flex-wrap items-end gap-2 rounded border border-ink-200 bg-white p-3"
           onSubmit={(e) => {
             e.preventDefault();
-            add.mutate({ pattern, packageId }, { onSuccess: (a) => { toast.success(`${a.pattern} → ${a.packageName}`); setPattern(''); setError(null); }, onError: (x) => setError(x.message) });
+            if (access.canEdit) add.mutate({ pattern, packageId }, { onSuccess: (a) => { toast.success(`${a.pattern} → ${a.packageName}`); setPattern(''); setError(null); }, onError: (x) => setError(x.message) });
+            else propose.mutate({ kind: 'alias', pattern, packageId, footprint: null, note: '' }, { onSuccess: () => { toast.success('Alias proposed to the librarians.'); setPattern(''); setError(null); }, onError: (x) => setError(x.message) });
           }}
         >
           <TextField label="Footprint or pattern" value={pattern} onChange={(e) => setPattern(e.target.value)} error={error ?? undefined} />
@@ -107,7 +110,7 @@ export function AliasesRoute() {
             <option value="">Choose…</option>
             {(pkgs.data ?? []).map((p) => <option key={p.id} value={p.id}>{p.name}</option>)}
           </SelectField>
-          <Button type="submit" disabled={!pattern.trim() || !packageId || add.isPending}>Add alias</Button>
+          <Button type="submit" disabled={!pattern.trim() || !packageId || add.isPending || propose.isPending}>{access.canEdit ? 'Add alias' : 'Propose alias'}</Button>
         </form>
       )}
       <Loaded q={q} label="aliases">

@@ -8,14 +8,16 @@ import { DataTable } from '../../../components/ui/data-table';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Badge, EmptyState } from '../../../components/ui/misc';
 import { usePackages } from '../../../features/library/api/packages';
+import { useCreateProposal } from '../../../features/library/api/proposals';
 import { useAddAliasFromUnmatched, useUnmatched } from '../../../features/library/api/unmatched';
 import { useLibraryAccess } from '../../../features/library/hooks/use-library-access';
 import { dateTime } from '../../../lib/format';
 import { Loaded } from './shared';
 
-function AddAlias({ u, onDone }: { u: UnmatchedDto; onDone: () => void }) {
+function AddAlias({ u, onDone, propose }: { u: UnmatchedDto; onDone: () => void; propose: boolean }) {
   const pkgs = usePackages();
   const add = useAddAliasFromUnmatched();
+  const proposal = useCreateProposal();
   const [packageId, setPackageId] = useState('');
   const [pattern, setPattern] = useState(u.footprint);
   const [error, setError] = useState<string | null>(null);
@@ -25,6 +27,10 @@ function AddAlias({ u, onDone }: { u: UnmatchedDto; onDone: () => void }) {
       className="flex flex-wrap items-end gap-2 rounded border border-copper-300 bg-white p-3"
       onSubmit={(e) => {
         e.preventDefault();
+        if (propose) {
+          proposal.mutate({ kind: 'alias', pattern: pattern.trim(), packageId, footprint: u.footprint, note: '' }, { onSuccess: () => { toast.success('Alias proposed to the librarians.'); onDone(); }, onError: (x) => setError(x.message) });
+          return;
+        }
         add.mutate({ id: u.id, packageId, pattern: pattern.trim() === u.footprint ? undefined : pattern.trim() }, {
           onSuccess: (a) => { toast.success(`${a.pattern} now matches ${a.packageName}.`); onDone(); },
           onError: (x) => setError(x.message),
@@ -36,7 +42,7 @@ function AddAlias({ u, onDone }: { u: UnmatchedDto; onDone: () => void }) {
         <option value="">Choose…</option>
         {(pkgs.data ?? []).map((p) => <option key={p.id} value={p.id}>{p.name} ({p.bodyLength.toFixed(3)} × {p.bodyWidth.toFixed(3)} mm)</option>)}
       </SelectField>
-      <Button type="submit" disabled={!packageId || add.isPending}>Add alias</Button>
+      <Button type="submit" disabled={!packageId || add.isPending || proposal.isPending}>{propose ? 'Propose alias' : 'Add alias'}</Button>
       <Button variant="ghost" onClick={onDone}>Cancel</Button>
     </form>
   );
@@ -63,14 +69,17 @@ export default function UnmatchedRoute() {
             <Button variant="ghost" onClick={() => setAliasFor(u)}>Add as alias…</Button>
           </span>
         ) : access.canPropose ? (
-          <Button variant="secondary" onClick={() => createFrom(u)}>Propose a package</Button>
+          <span className="flex gap-1">
+            <Button variant="secondary" onClick={() => createFrom(u)}>Propose a package</Button>
+            <Button variant="ghost" onClick={() => setAliasFor(u)}>Propose as alias…</Button>
+          </span>
         ) : null,
     },
   ];
   return (
     <div className="flex flex-col gap-4">
       <p className="text-sm text-ink-600">Footprints seen in centroid imports that match no package. Each one leaves its parts without a nozzle, a vision preset and a rotation offset until it is resolved.</p>
-      {aliasFor && <AddAlias key={aliasFor.id} u={aliasFor} onDone={() => setAliasFor(null)} />}
+      {aliasFor && <AddAlias key={aliasFor.id} u={aliasFor} propose={!access.canEdit} onDone={() => setAliasFor(null)} />}
       <Loaded q={q} label="unmatched footprints">
         {(items) =>
           items.length === 0 ? (
