@@ -13,8 +13,7 @@ import type {
   Units,
 } from '../pipeline/types';
 import { analyseHeader, FIELDS, REQUIRED_FIELDS, type Field, type HeaderInfo } from './headers';
-import * as values from './values';
-import { parseFlagCell, parseRotationCell, parseSideCell, scanNumberCell } from './values';
+import { parseFlagCell, parseNumberCell, parseRotationCell, parseSideCell, plainNumber } from './values';
 
 /** trim only when needed (most cells have no surrounding blanks) */
 function trimCell(s: string): string {
@@ -250,122 +249,25 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
     }
   }
 
-  const n = rows.length;
-  const xs = new Float64Array(n);
-  const ys = new Float64Array(n);
-  const xu = new Uint8Array(n);
-  const yu = new Uint8Array(n);
-  const placements: ImportedPlacement[] = [];
-  const seenRefs = new Map<string, number>();
-  const bottomRotation = opts.bottomRotation ?? 'bottom-view';
-  let firstSuffix: { unit: Units; line: number } | null = null;
-  let anyPlain = false;
-  let firstPlainLine = 0;
-
-  let line = headerLine + 1;
-  for (let r = 0; r < n; r++) {
-    const row = rows[r];
-    const rowLine = line;
-    line++;
-    if (hasQuotes) {
-      for (let c = 0; c < row.length; c++) {
-        const cell = row[c];
-        if (cell.indexOf('\n') >= 0) line += cell.split('\n').length - 1;
-      }
-    }
-    const first = row[0];
-    if (row.length === 1 && trimCell(first) === '') continue;
-    const f0 = first.charCodeAt(0);
-    if ((f0 === 35 || f0 === 47 || f0 <= 32) && /^\s*(#|\/\/)/.test(first)) continue;
-    if (row.length < minCells) {
-      if (row.every((c) => c.trim() === '')) continue;
-      throw err(`expected at least ${minCells} columns, found ${row.length}`, { line: rowLine, code: 'short-row' });
-    }
-    const ref = trimCell(row[iRef]);
-    if (ref === '') throw err('empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' });
-    const prev = seenRefs.get(ref);
-    if (prev !== undefined) {
-      throw err(`duplicate reference "${ref}" (first on line ${prev})`, {
-        line: rowLine,
-        column: infos[iRef].raw,
-        code: 'duplicate-ref',
-      });
-    }
-    seenRefs.set(ref, rowLine);
-
-    const vx = scanNumberCell(row[iX], decimalComma);
-    if (vx !== vx) throw badNumber(row[iX], rowLine, infos[iX].raw);
-    const ux = values.lastUnit;
-    const vy = scanNumberCell(row[iY], decimalComma);
-    if (vy !== vy) throw badNumber(row[iY], rowLine, infos[iY].raw);
-    const uy = values.lastUnit;
-    const rot = parseRotationCell(row[iRot], decimalComma);
-    if (rot === null) throw badNumber(row[iRot], rowLine, infos[iRot].raw);
-    const idx = placements.length;
-    xs[idx] = vx;
-    ys[idx] = vy;
-    if (ux) xu[idx] = UNIT_CODE[ux];
-    if (uy) yu[idx] = UNIT_CODE[uy];
-    if (ux || uy) {
-      if (!firstSuffix) firstSuffix = { unit: (ux ?? uy)!, line: rowLine };
-    }
-    if (!ux || !uy) {
-      if (!anyPlain) firstPlainLine = rowLine;
-      anyPlain = true;
-    }
-
-    let side: Side = 'top';
-    if (iSide >= 0) {
-      const s = parseSideCell(row[iSide] ?? '');
-      if (!s) {
-        throw err(
-          `unrecognised side "${(row[iSide] ?? '').trim()}"; expected top/bottom, t/b, top/bot, front/back, f/b or component/solder`,
-          { line: rowLine, column: infos[iSide].raw, code: 'bad-side' },
-        );
-      }
-      side = s;
-    }
-    let dnp = false;
-    if (iDnp >= 0) {
-      const f = parseFlagCell(row[iDnp] ?? '');
-      if (f === null) {
-        throw err(`unrecognised do-not-place value "${(row[iDnp] ?? '').trim()}"; expected yes/no, true/false, 1/0 or x/empty`, {
-          line: rowLine,
-          column: infos[iDnp].raw,
-          code: 'bad-flag',
-        });
-      }
-      dnp = dnpInverted ? !f : f;
-    }
-    let rotation = rot;
-    if (side === 'bottom') {
-      if (bottomRotation === 'negate') rotation = -rot;
-      else if (bottomRotation === 'mirror-180') rotation = 180 - rot;
-    }
-    placements.push({
-      ref,
-      x: 0,
-      y: 0,
-      rotation: normRotation(rotation),
-      side,
-      footprint: iFp >= 0 ? trimCell(row[iFp] ?? '') : '',
-      value: iVal >= 0 ? trimCell(row[iVal] ?? '') : '',
-      partNumber: iPn >= 0 ? trimCell(row[iPn] ?? '') : '',
-      dnp,
-      line: rowLine,
-    });
-  }
-  if (placements.length === 0) {
-    throw err('the file is empty: a header row but no data rows', { line: headerLine, code: 'empty' });
-  }
-
-  // ---- units ----------------------------------------------------------------------------------
   const hx = infos[iX].unit;
   const hy = infos[iY].unit;
   if (hx && hy && hx !== hy) {
     throw err(`the X column is in ${hx} but the Y column in ${hy}`, { line: headerLine, column: infos[iY].raw, code: 'unit-conflict' });
   }
   const headerUnit = hx ?? hy;
+  // the factor for plain numbers when the units are known before reading the rows (else NaN:
+  // fixed after the rows, once a unit suffix on the values has told them)
+  const knownFactor = opts.units ? MM_PER_UNIT[opts.units] : headerUnit ? MM_PER_UNIT[headerUnit] : NaN;
+
+  const { placements, xs, ys, xu, yu, firstSuffix, anyPlain, firstPlainLine } = readRows(rows, {
+    file, hasQuotes, minCells, iRef, iX, iY, iRot, iSide, iFp, iVal, iPn, iDnp, dnpInverted, decimalComma, knownFactor, infos,
+    headerLine, bottomRotation: opts.bottomRotation ?? 'bottom-view',
+  });
+  if (placements.length === 0) {
+    throw err('the file is empty: a header row but no data rows', { line: headerLine, code: 'empty' });
+  }
+
+  // ---- units ----------------------------------------------------------------------------------
   let units: Units;
   let unitsSource: CentroidDialect['unitsSource'];
   if (opts.units) {
@@ -410,13 +312,17 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
   }
   const fileFactor = MM_PER_UNIT[units];
   let mixed = false;
-  for (let i = 0; i < placements.length; i++) {
-    const ux = xu[i];
-    const uy = yu[i];
-    const p = placements[i];
-    p.x = xs[i] * (ux ? MM_PER_UNIT[CODE_UNIT[ux]!] : fileFactor);
-    p.y = ys[i] * (uy ? MM_PER_UNIT[CODE_UNIT[uy]!] : fileFactor);
-    if ((ux && CODE_UNIT[ux] !== units) || (uy && CODE_UNIT[uy] !== units)) mixed = true;
+  if (knownFactor !== fileFactor) {
+    for (let i = 0; i < placements.length; i++) {
+      const p = placements[i];
+      if (!xu[i]) p.x = xs[i] * fileFactor;
+      if (!yu[i]) p.y = ys[i] * fileFactor;
+    }
+  }
+  if (firstSuffix) {
+    for (let i = 0; i < placements.length; i++) {
+      if ((xu[i] && CODE_UNIT[xu[i]] !== units) || (yu[i] && CODE_UNIT[yu[i]] !== units)) mixed = true;
+    }
   }
   if (mixed) warnings.push({ line: null, message: `some values carry a unit other than ${units}; each was converted by its own unit`, code: 'units-mixed' });
   if (iSide < 0) warnings.push({ line: null, message: 'no side column: every part is on the top side', code: 'no-side' });
@@ -433,9 +339,12 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
   };
   return { placements, columns, units, dialect, headers: infos.map((h) => h.raw), warnings };
 
-  function badNumber(cell: string, l: number, column: string): EngineInputError {
-    return err(`expected a number, got "${cell.trim()}"`, { line: l, column, code: 'bad-number' });
-  }
+}
+
+/** (kept out of the row loop: a closure over a loop variable would cost an allocation per row) */
+function firstLineOf(placements: ImportedPlacement[], ref: string): number {
+  for (const p of placements) if (p.ref === ref) return p.line;
+  return 0;
 }
 
 /** normDeg without the finiteness check (the parser already refused non-finite numbers) */
@@ -447,4 +356,187 @@ function normRotation(a: number): number {
 
 function fieldLabel(f: Field): string {
   return f === 'ref' ? 'reference' : f === 'x' ? 'X' : f === 'y' ? 'Y' : f;
+}
+
+
+interface RowContext {
+  file: string | undefined;
+  hasQuotes: boolean;
+  minCells: number;
+  iRef: number;
+  iX: number;
+  iY: number;
+  iRot: number;
+  iSide: number;
+  iFp: number;
+  iVal: number;
+  iPn: number;
+  iDnp: number;
+  dnpInverted: boolean;
+  decimalComma: boolean;
+  knownFactor: number;
+  infos: HeaderInfo[];
+  headerLine: number;
+  bottomRotation: BottomRotation;
+}
+
+/** The row loop, on its own so that the engine optimises it as a small function. */
+function readRows(rows: string[][], c: RowContext) {
+  const { hasQuotes, minCells, iRef, iX, iY, iRot, iSide, iFp, iVal, iPn, iDnp, dnpInverted, decimalComma, knownFactor, infos, headerLine } = c;
+  const n = rows.length;
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  const xu = new Uint8Array(n);
+  const yu = new Uint8Array(n);
+  const placements: ImportedPlacement[] = [];
+  const refTable = new RefTable(n, placements);
+  const bottomRotation = c.bottomRotation;
+  let firstSuffix: { unit: Units; line: number } | null = null;
+  let anyPlain = false;
+  let firstPlainLine = 0;
+
+  let line = headerLine + 1;
+  for (let r = 0; r < n; r++) {
+    const row = rows[r];
+    const rowLine = line;
+    line++;
+    if (hasQuotes) {
+      for (let ci = 0; ci < row.length; ci++) {
+        const cell = row[ci];
+        if (cell.indexOf('\n') >= 0) line += cell.split('\n').length - 1;
+      }
+    }
+    const first = row[0];
+    if (row.length === 1 && trimCell(first) === '') continue;
+    const f0 = first.charCodeAt(0);
+    if ((f0 === 35 || f0 === 47 || f0 <= 32) && /^\s*(#|\/\/)/.test(first)) continue;
+    if (row.length < minCells) {
+      if (row.every((cell) => cell.trim() === '')) continue;
+      throw rowErr(c.file, `expected at least ${minCells} columns, found ${row.length}`, { line: rowLine, code: 'short-row' });
+    }
+    const ref = trimCell(row[iRef]);
+    if (ref === '') throw rowErr(c.file, 'empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' });
+    if (refTable.seen(ref, placements.length)) {
+      const prev = firstLineOf(placements, ref);
+      throw rowErr(c.file, `duplicate reference "${ref}" (first on line ${prev})`, {
+        line: rowLine,
+        column: infos[iRef].raw,
+        code: 'duplicate-ref',
+      });
+    }
+
+    let vx = plainNumber(row[iX]);
+    let ux: Units | null = null;
+    if (vx !== vx) {
+      const p = parseNumberCell(row[iX], decimalComma);
+      if (!p) throw badNumberErr(c.file, row[iX], rowLine, infos[iX].raw);
+      vx = p.value;
+      ux = p.unit;
+    }
+    let vy = plainNumber(row[iY]);
+    let uy: Units | null = null;
+    if (vy !== vy) {
+      const p = parseNumberCell(row[iY], decimalComma);
+      if (!p) throw badNumberErr(c.file, row[iY], rowLine, infos[iY].raw);
+      vy = p.value;
+      uy = p.unit;
+    }
+    const rot = parseRotationCell(row[iRot], decimalComma);
+    if (rot === null) throw badNumberErr(c.file, row[iRot], rowLine, infos[iRot].raw);
+    const idx = placements.length;
+    xs[idx] = vx;
+    ys[idx] = vy;
+    if (ux) xu[idx] = UNIT_CODE[ux];
+    if (uy) yu[idx] = UNIT_CODE[uy];
+    if (ux || uy) {
+      if (!firstSuffix) firstSuffix = { unit: (ux ?? uy)!, line: rowLine };
+    }
+    if (!ux || !uy) {
+      if (!anyPlain) firstPlainLine = rowLine;
+      anyPlain = true;
+    }
+
+    let side: Side = 'top';
+    if (iSide >= 0) {
+      const s = parseSideCell(row[iSide] ?? '');
+      if (!s) {
+        throw rowErr(c.file, 
+          `unrecognised side "${(row[iSide] ?? '').trim()}"; expected top/bottom, t/b, top/bot, front/back, f/b or component/solder`,
+          { line: rowLine, column: infos[iSide].raw, code: 'bad-side' },
+        );
+      }
+      side = s;
+    }
+    let dnp = false;
+    if (iDnp >= 0) {
+      const f = parseFlagCell(row[iDnp] ?? '');
+      if (f === null) {
+        throw rowErr(c.file, `unrecognised do-not-place value "${(row[iDnp] ?? '').trim()}"; expected yes/no, true/false, 1/0 or x/empty`, {
+          line: rowLine,
+          column: infos[iDnp].raw,
+          code: 'bad-flag',
+        });
+      }
+      dnp = dnpInverted ? !f : f;
+    }
+    let rotation = rot;
+    if (side === 'bottom') {
+      if (bottomRotation === 'negate') rotation = -rot;
+      else if (bottomRotation === 'mirror-180') rotation = 180 - rot;
+    }
+    placements.push({
+      ref,
+      x: ux ? vx * MM_PER_UNIT[ux] : vx * knownFactor,
+      y: uy ? vy * MM_PER_UNIT[uy] : vy * knownFactor,
+      rotation: normRotation(rotation),
+      side,
+      footprint: iFp >= 0 ? trimCell(row[iFp] ?? '') : '',
+      value: iVal >= 0 ? trimCell(row[iVal] ?? '') : '',
+      partNumber: iPn >= 0 ? trimCell(row[iPn] ?? '') : '',
+      dnp,
+      line: rowLine,
+    });
+  }
+  return { placements, xs, ys, xu, yu, firstSuffix, anyPlain, firstPlainLine };
+}
+
+/**
+ * Duplicate-reference detection: open addressing over an Int32Array keyed by a cheap string hash
+ * (FNV-1a over the UTF-16 code units). Sized once for all rows, so it allocates nothing per row —
+ * several times cheaper than a Set of 50,000 fresh strings.
+ */
+class RefTable {
+  private readonly table: Int32Array;
+  private readonly mask: number;
+  constructor(
+    rows: number,
+    private readonly placements: ImportedPlacement[],
+  ) {
+    let size = 16;
+    while (size < rows * 2) size <<= 1;
+    this.table = new Int32Array(size).fill(-1);
+    this.mask = size - 1;
+  }
+  /** true when `ref` was seen before; otherwise records it as placement `index` */
+  seen(ref: string, index: number): boolean {
+    let h = 0x811c9dc5;
+    for (let i = 0; i < ref.length; i++) h = Math.imul(h ^ ref.charCodeAt(i), 0x01000193);
+    const t = this.table, mask = this.mask, pl = this.placements;
+    for (let k = h & mask; ; k = (k + 1) & mask) {
+      const j = t[k];
+      if (j === -1) {
+        t[k] = index;
+        return false;
+      }
+      if (pl[j].ref === ref) return true;
+    }
+  }
+}
+
+function rowErr(file: string | undefined, msg: string, f: { line?: number; column?: string; field?: string; code?: string }): EngineInputError {
+  return new EngineInputError(msg, { file, ...f });
+}
+
+function badNumberErr(file: string | undefined, cell: string, line: number, column: string): EngineInputError {
+  return new EngineInputError(`expected a number, got "${cell.trim()}"`, { file, line, column, code: 'bad-number' });
 }

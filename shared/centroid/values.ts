@@ -41,6 +41,16 @@ export function scanNumberCell(s: string, decimalComma: boolean): number {
   return value;
 }
 
+/** Fast path only: a plain decimal number (no unit, no comma), else NaN. */
+export function plainNumber(s: string): number {
+  const c0 = s.charCodeAt(0);
+  if ((c0 >= 48 && c0 <= 57) || c0 === 45) {
+    const n = +s;
+    if (n - n === 0 && !(c0 === 48 && isRadixLetter(s.charCodeAt(1)))) return n;
+  }
+  return NaN;
+}
+
 /** Parse a numeric cell into { value, unit }, or null when the cell is not a number. */
 export function parseNumberCell(s: string, decimalComma: boolean): ParsedNumber | null {
   const value = scanNumberCell(s, decimalComma);

@@ -48,20 +48,20 @@ export function filledArray<T>(n: number, v: T): T[] {
 }
 
 const EMPTY_F64 = new Float64Array(0);
+const EMPTY_I32 = new Int32Array(0);
 
 /** Empty columns of length n: numeric arrays zeroed (NaN for the nullable ones), text columns ''
- * and nullable text columns null, side 'top'. With `text` false only the computed columns (seq,
- * board, x, y, originX, originY, rotation, sourceIndex) are allocated; the caller defines the
- * repeated ones (defineLazyColumns). */
+ * and nullable text columns null, side 'top'. With `text` false only x, y and rotation are
+ * allocated; the caller defines the others as derived columns (defineLazyColumns). */
 export function allocatePlacementColumns(n: number, text = true): PlacementColumns {
   // one buffer for the ten Float64 columns and one for the three Int32 columns: few large
   // allocations instead of many (the columns are views; each has its own length n)
-  const f64 = new ArrayBuffer(8 * n * (text ? 10 : 5));
-  const i32 = new ArrayBuffer(4 * n * 3);
+  const f64 = new ArrayBuffer(8 * n * (text ? 10 : 3));
+  const i32 = new ArrayBuffer(text ? 4 * n * 3 : 0);
   let fi = 0;
   let ii = 0;
   const f = (): Float64Array => new Float64Array(f64, 8 * n * fi++, n);
-  const int = (): Int32Array => new Int32Array(i32, 4 * n * ii++, n);
+  const int = (): Int32Array => (text ? new Int32Array(i32, 4 * n * ii++, n) : EMPTY_I32);
   const nan = (): Float64Array => (text ? f().fill(NaN) : EMPTY_F64);
   const g = (): Float64Array => (text ? f() : EMPTY_F64);
   const t = <T>(v: T): T[] => (text ? filledArray(n, v) : []);
@@ -73,8 +73,8 @@ export function allocatePlacementColumns(n: number, text = true): PlacementColum
     side: t<Side>('top'),
     x: f(),
     y: f(),
-    originX: f(),
-    originY: f(),
+    originX: g(),
+    originY: g(),
     rotation: f(),
     packageName: t<string | null>(null),
     nozzle: t<string | null>(null),
@@ -92,15 +92,18 @@ export function allocatePlacementColumns(n: number, text = true): PlacementColum
   };
 }
 
-/** Columns that only repeat per-part data (the same on every board). */
+/** Columns derived from per-part data or from the placement index (seq, board, sourceIndex) or
+ * from x, y and rotation (originX/Y): everything but x, y and rotation. */
 export type RepeatedColumn =
   | 'ref' | 'side' | 'partNumber' | 'value' | 'footprint' | 'packageName' | 'nozzle' | 'vision'
-  | 'bodyLength' | 'bodyWidth' | 'bodyHeight' | 'courtyard' | 'overhang' | 'holderRadius';
+  | 'bodyLength' | 'bodyWidth' | 'bodyHeight' | 'courtyard' | 'overhang' | 'holderRadius'
+  | 'seq' | 'board' | 'sourceIndex' | 'originX' | 'originY';
 
 /**
- * Columns that only repeat per-part data are built on first read: the getter makes the
- * full-length array once (the board's values repeated per placed board), then replaces itself
- * with a plain data property. Reading, writing, spreading and JSON behave as for a plain property.
+ * Derived columns are built on first read: the getter makes the full-length array once, then
+ * replaces itself with a plain data property. Reading, writing, spreading and JSON behave as for
+ * a plain property. (The step-out itself computes x, y and rotation only: 100,000 placements do
+ * not pay for columns nobody reads, and the result stays small.)
  */
 export function defineLazyColumns(
   cols: PlacementColumns,

@@ -194,11 +194,11 @@ export function runJob(input: RunJobInput): RunResult {
   for (const inst of placedBoards) {
     const T = outputMapOf(inst.number);
     const rotTerm = sideRotationTerm(side, flipAxis, inst.rotation) + rotOf(T);
-    stepOut(out, k, composeAffine(T, boardMaps.get(inst.number)!), rotTerm, inst.number, sx, sy, srot, hasOff, offX, offY, partIndex);
+    stepOut(out, k, composeAffine(T, boardMaps.get(inst.number)!), rotTerm, sx, sy, srot, hasOff, offX, offY);
     k += m;
   }
-  // columns that only repeat per-part data (text, package body, courtyard, nozzle holder) are built
-  // on first read (defineLazyColumns): the board's column repeated once per placed board.
+  // every column but x, y and rotation is derived (per-part data repeated per placed board, the
+  // placement index, or the body offset taken back off) and built on first read (defineLazyColumns)
   const B = placedBoards.length;
   const refOne: string[] = [], pnOne: string[] = [], valOne: string[] = [], fpOne: string[] = [], sideOne: Side[] = [];
   for (let j = 0; j < m; j++) {
@@ -220,6 +220,19 @@ export function runJob(input: RunJobInput): RunResult {
     courtyard: () => repeatTyped(court, B),
     overhang: () => repeatTyped(over, B),
     holderRadius: () => repeatTyped(holder, B),
+    seq: () => {
+      const a = new Int32Array(total);
+      for (let i = 0; i < total; i++) a[i] = i + 1;
+      return a;
+    },
+    board: () => {
+      const a = new Int32Array(total);
+      placedBoards.forEach((b, bi) => a.fill(b.number, bi * m, (bi + 1) * m));
+      return a;
+    },
+    sourceIndex: () => repeatTyped(partIndex, B),
+    originX: () => originColumn(out, 'x', m, hasOff, offX, offY),
+    originY: () => originColumn(out, 'y', m, hasOff, offX, offY),
   });
 
   // ---- outlines and fiducials in the output frame ----------------------------------------------
@@ -275,7 +288,7 @@ export function runJob(input: RunJobInput): RunResult {
 }
 
 /** `n` copies of a typed column, one after another. */
-function repeatTyped<A extends Float64Array | Uint8Array>(one: A, n: number): A {
+function repeatTyped<A extends Float64Array | Uint8Array | Int32Array>(one: A, n: number): A {
   const out = new (one.constructor as { new (len: number): A })(one.length * n);
   for (let i = 0; i < n; i++) out.set(one, i * one.length);
   return out;
@@ -299,16 +312,14 @@ function stepOut(
   k0: number,
   M: Affine,
   rotTerm: number,
-  boardNumber: number,
   sx: Float64Array,
   sy: Float64Array,
   srot: Float64Array,
   hasOff: Uint8Array,
   offX: Float64Array,
   offY: Float64Array,
-  partIndex: Int32Array,
 ): void {
-  const { x: ox, y: oy, originX, originY, rotation, seq, board, sourceIndex } = out;
+  const { x: ox, y: oy, rotation } = out;
   const a = M.a, b = M.b, c = M.c, d = M.d, tx = M.tx, ty = M.ty;
   const m = sx.length;
   const DEG = Math.PI / 180;
@@ -319,8 +330,6 @@ function stepOut(
     let r = (srot[j] + rotTerm) % 360;
     if (r < 0) r += 360;
     if (r >= 360 - 1e-9 || r < 1e-12) r = 0;
-    originX[k] = X;
-    originY[k] = Y;
     rotation[k] = r;
     if (hasOff[j] === 1) {
       const cs = Math.cos(r * DEG), sn = Math.sin(r * DEG);
@@ -330,8 +339,20 @@ function stepOut(
       ox[k] = X;
       oy[k] = Y;
     }
-    seq[k] = k + 1;
-    board[k] = boardNumber;
-    sourceIndex[k] = partIndex[j];
   }
+}
+
+/** The placement point: the body centre minus the body offset turned by the rotation. */
+function originColumn(out: PlacementColumns, axis: 'x' | 'y', m: number, hasOff: Uint8Array, offX: Float64Array, offY: Float64Array): Float64Array {
+  const src = axis === 'x' ? out.x : out.y;
+  const res = Float64Array.from(src);
+  const rot = out.rotation;
+  const DEG = Math.PI / 180;
+  for (let k = 0; k < res.length; k++) {
+    const j = k % m;
+    if (hasOff[j] !== 1) continue;
+    const cs = Math.cos(rot[k] * DEG), sn = Math.sin(rot[k] * DEG);
+    res[k] -= axis === 'x' ? cs * offX[j] - sn * offY[j] : sn * offX[j] + cs * offY[j];
+  }
+  return res;
 }

@@ -49,46 +49,159 @@ function meta(r: RunResult, o: WriteOptions): ListMeta {
   };
 }
 
-/** The CSV body (header row and rows, `\n` after each), the bytes the checksum covers. */
-export function placementCsvBody(r: RunResult): string {
+const encoder = new TextEncoder();
+const decoder = new TextDecoder();
+
+/** A growable byte buffer with ASCII number writers (the CSV body is built as bytes: it is what
+ * the checksum covers, and it keeps 100,000 rows from becoming millions of short-lived strings). */
+class ByteWriter {
+  buf: Uint8Array;
+  len = 0;
+  constructor(capacity: number) {
+    this.buf = new Uint8Array(Math.max(1024, capacity));
+  }
+  ensure(extra: number): void {
+    if (this.len + extra <= this.buf.length) return;
+    const next = new Uint8Array(Math.max(this.buf.length * 2, this.len + extra));
+    next.set(this.buf.subarray(0, this.len));
+    this.buf = next;
+  }
+  byte(b: number): void {
+    this.buf[this.len++] = b;
+  }
+  bytes(src: Uint8Array): void {
+    const n = src.length;
+    const buf = this.buf;
+    let p = this.len;
+    if (n < 16) for (let i = 0; i < n; i++) buf[p++] = src[i];
+    else {
+      buf.set(src, p);
+      p += n;
+    }
+    this.len = p;
+  }
+  /** a non-negative integer below 2^53 */
+  uint(v: number): void {
+    const buf = this.buf;
+    if (v < 10) {
+      buf[this.len++] = 48 + v;
+      return;
+    }
+    let digits = 1;
+    for (let t = v; t >= 10; t = Math.floor(t / 10)) digits++;
+    let p = this.len + digits;
+    this.len = p;
+    for (let t = v; ; ) {
+      const q = Math.floor(t / 10);
+      buf[--p] = 48 + (t - q * 10);
+      if (q === 0) break;
+      t = q;
+    }
+  }
+  /** like fmt3: 3 decimals, half away from zero, never "-0.000"; `rot` writes 360.000 as 0.000 */
+  fixed3(v: number, rot = false): void {
+    const neg = v < 0;
+    const a = neg ? -v : v;
+    if (!(a < 1e12)) {
+      this.bytes(encoder.encode(rot ? fmtRot3(v) : fmt3(v)));
+      return;
+    }
+    let q = Math.round(a * 1000);
+    if (rot && q === 360000) q = 0;
+    if (q === 0) {
+      this.bytes(ZERO3);
+      return;
+    }
+    if (neg) this.byte(45);
+    const i = Math.floor(q / 1000);
+    const f = q - i * 1000;
+    this.uint(i);
+    const buf = this.buf;
+    let p = this.len;
+    buf[p++] = 46;
+    buf[p++] = 48 + Math.floor(f / 100);
+    buf[p++] = 48 + (Math.floor(f / 10) % 10);
+    buf[p++] = 48 + (f % 10);
+    this.len = p;
+  }
+}
+const ZERO3 = encoder.encode('0.000');
+
+interface RowCache {
+  ref: string;
+  pkg: string | null;
+  noz: string | null;
+  vis: string | null;
+  h: number;
+  pn: string;
+  val: string;
+  refBytes: Uint8Array;
+  /** `,package,nozzle,vision,height,part_number,value\n` */
+  tail: Uint8Array;
+}
+
+/** The CSV body (header row and rows, `\n` after each) as UTF-8 bytes: what the checksum covers. */
+export function placementCsvBodyBytes(r: RunResult): Uint8Array {
   const p = r.placements;
   const n = p.count;
-  const lines: string[] = [CSV_HEADER];
-  const quoted = new Map<string | null, string>();
-  const qc = (s: string | null): string => {
-    let v = quoted.get(s);
-    if (v === undefined) {
-      v = s === null ? '' : csvField(s);
-      quoted.set(s, v);
-    }
-    return v;
-  };
+  const w = new ByteWriter(64 + n * 72);
+  w.bytes(encoder.encode(CSV_HEADER + '\n'));
+  const { seq, board, ref, x, y, rotation, packageName, nozzle, vision, bodyHeight, partNumber, value, sourceIndex } = p;
   const heights = new Map<number, string>();
-  const { seq, board, ref, x, y, rotation, packageName, nozzle, vision, bodyHeight, partNumber, value } = p;
+  const q = (s: string | null) => (s === null ? '' : csvField(s));
+  // rows of the same source part on other boards share ref and tail: cache them per source part,
+  // checked against the current strings (identical strings compare by reference)
+  const cache: (RowCache | undefined)[] = [];
   for (let i = 0; i < n; i++) {
-    const h = bodyHeight[i];
-    let hs = '';
-    if (h === h) {
-      hs = heights.get(h) ?? '';
-      if (hs === '') {
-        hs = fmtShort(h, 3);
-        heights.set(h, hs);
+    const src = sourceIndex[i];
+    let c = cache[src];
+    const rf = ref[i], pk = packageName[i], nz = nozzle[i], vs = vision[i], h = bodyHeight[i], pn = partNumber[i], vl = value[i];
+    if (
+      c === undefined || c.ref !== rf || c.pkg !== pk || c.noz !== nz || c.vis !== vs ||
+      !(c.h === h || (h !== h && c.h !== c.h)) || c.pn !== pn || c.val !== vl
+    ) {
+      let hs = '';
+      if (h === h) {
+        hs = heights.get(h) ?? '';
+        if (hs === '') {
+          hs = fmtShort(h, 3);
+          heights.set(h, hs);
+        }
       }
+      c = {
+        ref: rf, pkg: pk, noz: nz, vis: vs, h, pn, val: vl,
+        refBytes: encoder.encode(csvField(rf)),
+        tail: encoder.encode(',' + q(pk) + ',' + q(nz) + ',' + q(vs) + ',' + hs + ',' + q(pn) + ',' + q(vl) + '\n'),
+      };
+      if (src >= 0) cache[src] = c;
     }
-    lines.push(
-      seq[i] + ',' + board[i] + ',' + csvField(ref[i]) + ',' + fmt3(x[i]) + ',' + fmt3(y[i]) + ',' + fmtRot3(rotation[i]) + ',' +
-      qc(packageName[i]) + ',' + qc(nozzle[i]) + ',' + qc(vision[i]) + ',' + hs + ',' + qc(partNumber[i]) + ',' + qc(value[i]),
-    );
+    w.ensure(80 + c.refBytes.length + c.tail.length);
+    w.uint(seq[i]);
+    w.byte(44);
+    w.uint(board[i]);
+    w.byte(44);
+    w.bytes(c.refBytes);
+    w.byte(44);
+    w.fixed3(x[i]);
+    w.byte(44);
+    w.fixed3(y[i]);
+    w.byte(44);
+    w.fixed3(rotation[i], true);
+    w.bytes(c.tail);
   }
-  lines.push('');
-  return lines.join('\n');
+  return w.buf.subarray(0, w.len);
+}
+
+/** The CSV body as text (see placementCsvBodyBytes). */
+export function placementCsvBody(r: RunResult): string {
+  return decoder.decode(placementCsvBodyBytes(r));
 }
 
 /** The neutral list as CSV, with its sha256 (hex digest of every byte after the metadata lines). */
 export async function writePlacementListCsv(r: RunResult, o: WriteOptions = {}): Promise<{ text: string; sha256: string }> {
   const m = meta(r, o);
-  const body = placementCsvBody(r);
-  const sha256 = await sha256Hex(body);
+  const bodyBytes = placementCsvBodyBytes(r);
+  const sha256 = await sha256Hex(bodyBytes);
   const head: string[] = [
     `# format: ${LIST_FORMAT}`,
     `# program: ${m.program}`,
@@ -101,7 +214,7 @@ export async function writePlacementListCsv(r: RunResult, o: WriteOptions = {}):
   for (const f of listFiducials(r)) head.push(`# fiducial: ${oneLine(f.name)} ${fmt3(f.x)} ${fmt3(f.y)}`);
   head.push(`# boards: ${m.boards}`, `# placements: ${m.placements}`, `# generated: ${m.generated}`, `# sha256: ${sha256}`);
   for (const bt of r.boardTransforms) head.push(`# board-transform: ${bt.board} ${transformMetaLine(bt.transform)}`);
-  return { text: head.join('\n') + '\n' + body, sha256 };
+  return { text: head.join('\n') + '\n' + decoder.decode(bodyBytes), sha256 };
 }
 
 /** The neutral list as a JSON object (numbers not rounded). */

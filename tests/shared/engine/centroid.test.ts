@@ -260,3 +260,33 @@ describe('properties', () => {
     );
   });
 });
+
+describe('duplicate detection at scale (property)', () => {
+  test('a planted duplicate among many references is found on its line', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 2, max: 3000 }), fc.nat(), fc.nat(), (n, a, b) => {
+        const first = a % n;
+        let second = b % n;
+        if (second === first) second = (second + 1) % n;
+        const [lo, hi] = first < second ? [first, second] : [second, first];
+        const refs = Array.from({ length: n }, (_, i) => `R${i}`);
+        refs[hi] = refs[lo];
+        const text = ['Ref,X,Y,Rot', ...refs.map((r) => `${r},1,1,0`)].join('\n');
+        let e: unknown;
+        try {
+          importCentroid(text, { units: 'mm' });
+        } catch (x) {
+          e = x;
+        }
+        expect(e).toBeInstanceOf(EngineInputError);
+        expect((e as EngineInputError).line).toBe(hi + 2);
+        expect((e as EngineInputError).message).toContain(`first on line ${lo + 2}`);
+      }),
+      { numRuns: 40 },
+    );
+  });
+  test('many distinct references import without a false duplicate', () => {
+    const text = ['Ref,X,Y,Rot', ...Array.from({ length: 20000 }, (_, i) => `U${i},1,1,0`)].join('\n');
+    expect(importCentroid(text, { units: 'mm' }).placements).toHaveLength(20000);
+  });
+});

@@ -242,3 +242,34 @@ describe('test helpers (so the clean-sample check can fail)', () => {
     expect(pointInConvex([1.5, 0.5], a)).toBe(false);
   });
 });
+
+describe('derived columns (built on first read)', () => {
+  test('every column has length count and the expected values, also after structured cloning', () => {
+    const r = runSample('led-strip', 'top');
+    const p = r.placements;
+    const keys = ['seq', 'board', 'ref', 'side', 'x', 'y', 'originX', 'originY', 'rotation', 'packageName', 'nozzle', 'vision', 'bodyLength', 'bodyWidth', 'bodyHeight', 'courtyard', 'overhang', 'holderRadius', 'partNumber', 'value', 'footprint', 'sourceIndex'] as const;
+    for (const k of keys) expect((p[k] as ArrayLike<unknown>).length, k).toBe(p.count);
+    expect(Array.from(p.seq.slice(0, 3))).toEqual([1, 2, 3]);
+    // 11 top parts per board (R5 not fitted), boards 1..20 in order
+    expect(p.board[10]).toBe(1);
+    expect(p.board[11]).toBe(2);
+    expect(p.sourceIndex[11]).toBe(p.sourceIndex[0]);
+    const clone = structuredClone(p);
+    expect(clone.ref).toEqual(p.ref);
+    expect(Array.from(clone.board)).toEqual(Array.from(p.board));
+  });
+  test('a derived column can be replaced by assignment', () => {
+    const p = runSample('led-strip', 'top').placements;
+    p.value = p.value.map((v) => v.toUpperCase());
+    expect(p.value[0]).toBe('GREEN 570NM');
+  });
+  test('originX/Y take the turned body offset back off', () => {
+    const r = runSample('weather-station', 'top');
+    const p = r.placements;
+    const i = p.ref.indexOf('J1');
+    // HDR-1x4-2.0 body offset (3.0, −1.0) turned by the output rotation
+    const t = (p.rotation[i] * Math.PI) / 180;
+    expect(p.x[i] - p.originX[i]).toBeCloseTo(3 * Math.cos(t) + 1 * Math.sin(t), 9);
+    expect(p.y[i] - p.originY[i]).toBeCloseTo(3 * Math.sin(t) - 1 * Math.cos(t), 9);
+  });
+});
