@@ -55,13 +55,14 @@ const KIND_RANK = new Map<FindingKind, number>(FINDING_KINDS.map((k, i) => [k, i
 
 /** Millimetres for a message: two decimals, more for tiny values ("0.21", "0.0042"). */
 export function fmtMm(v: number): string {
-  const a = Math.abs(v);
+  const a = v < 0 ? -v : v;
   if (a === 0) return '0';
-  if (a >= 0.01 && a < 1e9) {
-    // two decimals by integer arithmetic (as toFixed(2), without its cost in a long report)
+  if (a >= 0.01 && a < 2e7) {
+    // two decimals by small-integer arithmetic (as toFixed(2), without its cost in a long report)
     const n = Math.round(a * 100);
-    const frac = n % 100;
-    return (v < 0 ? '-' : '') + ((n - frac) / 100) + (frac < 10 ? '.0' : '.') + frac;
+    const ip = (n / 100) | 0;
+    const fr = (n - ip * 100) | 0;
+    return (v < 0 ? '-' : '') + ip + (fr < 10 ? '.0' : '.') + fr;
   }
   return Number(v.toPrecision(2)).toString();
 }

@@ -551,25 +551,37 @@ function pairsIndexed(P: Prepared, ids: Int32Array, tree: Flatbush | null, sink:
     lb[4 * k + 2] = cx[i] + gex[i];
     lb[4 * k + 3] = cy[i] + gey[i];
   }
-  // the current group's candidates, copied next to each other
-  let cb = new Float64Array(256);
-  let ck = new Int32Array(64);
+  // the current group's candidates, collected next to each other straight from the tree (its
+  // boxes come with each hit), so flatbush builds no result array
+  let cb = new Float64Array(1024);
+  let ck = new Int32Array(256);
+  let nc = 0;
+  const collect = (kj: number, x0: number, y0: number, x1: number, y1: number): boolean => {
+    if (nc === ck.length) {
+      const nk = new Int32Array(2 * nc);
+      nk.set(ck);
+      ck = nk;
+      const nb = new Float64Array(8 * nc);
+      nb.set(cb);
+      cb = nb;
+    }
+    ck[nc] = kj;
+    const o = 4 * nc;
+    cb[o] = x0;
+    cb[o + 1] = y0;
+    cb[o + 2] = x1;
+    cb[o + 3] = y1;
+    nc++;
+    return false;
+  };
   for (let g = 0; g < plan.groups; g++) {
-    // one descent of the tree for the whole group; candidates come back as local indices
-    const cands = tree.search(box[4 * g], box[4 * g + 1], box[4 * g + 2], box[4 * g + 3]);
-    const nc = cands.length;
-    if (nc > ck.length) {
-      ck = new Int32Array(2 * nc);
-      cb = new Float64Array(8 * nc);
-    }
-    for (let c = 0; c < nc; c++) {
-      const kj = cands[c];
-      ck[c] = kj;
-      cb[4 * c] = lb[4 * kj];
-      cb[4 * c + 1] = lb[4 * kj + 1];
-      cb[4 * c + 2] = lb[4 * kj + 2];
-      cb[4 * c + 3] = lb[4 * kj + 3];
-    }
+    // one descent of the tree for the whole group
+    nc = 0;
+    tree.search(box[4 * g], box[4 * g + 1], box[4 * g + 2], box[4 * g + 3], collect);
+    // locals for the scan (the closure's variables may be replaced when it grows them)
+    const n = nc;
+    const bb = cb;
+    const kk = ck;
     const end = start[g + 1];
     for (let t = start[g]; t < end; t++) {
       const k = order[t];
@@ -587,17 +599,17 @@ function pairsIndexed(P: Prepared, ids: Int32Array, tree: Flatbush | null, sink:
       const ay0 = qy0[k];
       const ax1 = qx1[k];
       const ay1 = qy1[k];
-      for (let c = 0; c < nc; c++) {
-        const x0 = cb[4 * c];
+      for (let c = 0; c < n; c++) {
+        const x0 = bb[4 * c];
         if (x0 > ax1) continue;
-        const x1 = cb[4 * c + 2];
+        const x1 = bb[4 * c + 2];
         if (x1 < ax0) continue;
-        const y0 = cb[4 * c + 1];
+        const y0 = bb[4 * c + 1];
         if (y0 > ay1) continue;
-        const y1 = cb[4 * c + 3];
+        const y1 = bb[4 * c + 3];
         if (y1 < ay0) continue;
         // the candidate's grown box meets this part's own query box
-        const kj = ck[c];
+        const kj = kk[c];
         if (kj === k) continue;
         const j = ids[kj];
         if (ri > 0 && h[j] - hi > SHADOW_STEP) {
