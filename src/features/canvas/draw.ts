@@ -25,6 +25,9 @@ export interface CanvasNote {
   createdAt?: string;
 }
 
+/** Shapes per path: small paths keep the rasteriser linear. */
+const BATCH = 200;
+
 const contains = (outer: Box, inner: Box) => outer.minX <= inner.minX && outer.minY <= inner.minY && outer.maxX >= inner.maxX && outer.maxY >= inner.maxY;
 const meets = (a: Box, b: Box) => a.minX <= b.maxX && b.minX <= a.maxX && a.minY <= b.maxY && b.minY <= a.maxY;
 
@@ -161,81 +164,79 @@ export function drawBodies(ctx: CanvasRenderingContext2D, scene: Scene, vp: View
   const at = (j: number) => (list ? list[j] : j);
   worldOn(ctx, v);
   if (layers.courtyards) {
-    ctx.beginPath();
-    for (let j = 0; j < count; j++) quadPath(ctx, scene.courtyards, at(j));
     ctx.lineWidth = px;
     ctx.setLineDash([2 * px, 2 * px]);
     ctx.strokeStyle = C.courtyard;
+    ctx.beginPath();
+    for (let j = 0; j < count; j++) {
+      quadPath(ctx, scene.courtyards, at(j));
+      if (j % BATCH === BATCH - 1) { ctx.stroke(); ctx.beginPath(); }
+    }
     ctx.stroke();
     ctx.setLineDash([]);
   }
   if (layers.bodies) {
     const edges = v.s >= 4; // outlines only when a 1 mm body is 4 px or more
     for (const pass of dim ? [1, 0] : [0]) {
+      ctx.fillStyle = pass ? C.bodyDimFill : C.bodyFill;
+      ctx.lineWidth = px;
+      ctx.strokeStyle = pass ? C.bodyDimEdge : C.bodyEdge;
+      // one path per batch of bodies: a single path of 50,000 overlapping rectangles is
+      // filled very slowly by the software rasteriser
+      let inPath = 0;
       ctx.beginPath();
       for (let j = 0; j < count; j++) {
         const i = at(j);
         if (dim && dim[i] !== pass) continue;
         quadPath(ctx, scene.quads, i);
+        if (++inPath === BATCH) {
+          ctx.fill();
+          if (edges) ctx.stroke();
+          ctx.beginPath();
+          inPath = 0;
+        }
       }
-      ctx.fillStyle = pass ? C.bodyDimFill : C.bodyFill;
-      ctx.fill();
-      if (edges) {
-        ctx.lineWidth = px;
-        ctx.strokeStyle = pass ? C.bodyDimEdge : C.bodyEdge;
-        ctx.stroke();
+      if (inPath) {
+        ctx.fill();
+        if (edges) ctx.stroke();
       }
     }
   }
   if (layers.marks && v.s >= 2) {
+    ctx.fillStyle = C.mark;
     ctx.beginPath();
     const m = scene.marks;
     const minR = 0.9 * px;
+    const minSide = 6 * px; // a mark only on a body at least 6 px across
+    const p = scene.run.placements;
+    let inPath = 0;
     for (let j = 0; j < count; j++) {
       const i = at(j);
       if (dim && dim[i]) continue;
+      if (!(Math.min(p.bodyLength[i], p.bodyWidth[i]) >= minSide)) continue;
       const x = m[3 * i], y = m[3 * i + 1], r = Math.max(m[3 * i + 2], minR);
       ctx.moveTo(x + r, y);
       ctx.arc(x, y, r, 0, 2 * Math.PI);
+      if (++inPath === BATCH) { ctx.fill(); ctx.beginPath(); inPath = 0; }
     }
-    ctx.fillStyle = C.mark;
-    ctx.fill();
+    if (inPath) ctx.fill();
   }
   ctx.restore();
 }
 
-export interface OverlayState {
-  layers: LayerVisibility;
-  selected: ReadonlySet<number>;
-  selectedFindings: ReadonlySet<string>;
+
+export interface FindingStyle {
   checked: ReadonlySet<string>;
-  hovered: number;
-  measure: readonly MeasurePoint[];
-  notes: readonly CanvasNote[];
-  dim: Uint8Array | null;
   findingDim: ((f: Finding) => boolean) | null;
-  alignImage: readonly { x: number; y: number }[];
-  alignPanel: readonly { x: number; y: number }[];
-  /** box select in screen px */
-  box: { x0: number; y0: number; x1: number; y1: number } | null;
-  /** a note being written (screen marker) */
-  pendingNote: { x: number; y: number } | null;
 }
 
-const LABEL_MIN_PX = 8;
-const LABEL_MAX_PX = 14;
-const LABEL_CAP = 5000;
-
-/** Findings, reference labels, selection and hover, measure, notes, alignment points, box. */
-export function drawOverlay(ctx: CanvasRenderingContext2D, scene: Scene, vp: Viewport, st: OverlayState) {
+/** Findings by severity: small areas filled, large ones outlined, points ringed, gaps as lines. */
+export function drawFindings(ctx: CanvasRenderingContext2D, scene: Scene, vp: Viewport, st: FindingStyle) {
   const v = vp.view;
   const px = 1 / v.s;
-  const p = scene.run.placements;
   const screen = visibleWorldBox(v, vp.width, vp.height);
-  const S = (x: number, y: number) => [v.ox + v.s * x, v.oy - v.s * y] as const;
-
   // ---- findings -------------------------------------------------------------------------
-  if (st.layers.findings) {
+  {
     const po = scene.run.panel.outline;
     const panelArea = Math.abs((po[1].x - po[0].x) * (po[3].y - po[0].y) - (po[1].y - po[0].y) * (po[3].x - po[0].x));
     worldOn(ctx, v);
@@ -279,6 +280,59 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, scene: Scene, vp: Vie
       ctx.setLineDash([]);
       ctx.globalAlpha = 1;
     });
+    ctx.restore();
+  }
+
+}
+
+export interface OverlayState {
+  layers: LayerVisibility;
+  selected: ReadonlySet<number>;
+  selectedFindings: ReadonlySet<string>;
+  hovered: number;
+  measure: readonly MeasurePoint[];
+  notes: readonly CanvasNote[];
+  dim: Uint8Array | null;
+  alignImage: readonly { x: number; y: number }[];
+  alignPanel: readonly { x: number; y: number }[];
+  /** box select in screen px */
+  box: { x0: number; y0: number; x1: number; y1: number } | null;
+  /** a note being written (screen marker) */
+  pendingNote: { x: number; y: number } | null;
+}
+
+const LABEL_MIN_PX = 8;
+const LABEL_MAX_PX = 14;
+const LABEL_CAP = 1500;
+
+/** Findings, reference labels, selection and hover, measure, notes, alignment points, box. */
+export function drawOverlay(ctx: CanvasRenderingContext2D, scene: Scene, vp: Viewport, st: OverlayState) {
+  const v = vp.view;
+  const px = 1 / v.s;
+  const p = scene.run.placements;
+  const S = (x: number, y: number) => [v.ox + v.s * x, v.oy - v.s * y] as const;
+
+  // ---- selected findings: a white outline over their geometry ---------------------------------
+  if (st.selectedFindings.size && st.layers.findings) {
+    worldOn(ctx, v);
+    ctx.strokeStyle = C.selection;
+    ctx.lineWidth = 2 * px;
+    for (const f of scene.findings) {
+      if (!st.selectedFindings.has(f.key)) continue;
+      const g = f.geometry;
+      ctx.beginPath();
+      if (g.type === 'polygon') {
+        ctx.moveTo(g.points[0][0], g.points[0][1]);
+        for (let j = 1; j < g.points.length; j++) ctx.lineTo(g.points[j][0], g.points[j][1]);
+        ctx.closePath();
+      } else if (g.type === 'segment') {
+        ctx.moveTo(g.from[0], g.from[1]);
+        ctx.lineTo(g.to[0], g.to[1]);
+      } else {
+        ctx.arc(g.x, g.y, 10 * px, 0, 2 * Math.PI);
+      }
+      ctx.stroke();
+    }
     ctx.restore();
   }
 
