@@ -148,4 +148,25 @@ describe('library in Chromium', () => {
       await page.close();
     }
   });
+  it('the librarian previews a CSV of packages with a per-row error, and sees the presets and machines', async () => {
+    const page = await h.newPage();
+    try {
+      await signInAs(page, h.baseUrl, LENA, DEMO_PASSWORD);
+      await page.goto(`${h.baseUrl}/library/transfer`);
+      const csv = ['name,family,length,width,height,nozzles,vision,tapeWidth,tapePitch,aliases', 'LED-2020-HC,chip,2.0,2.0,0.7,N14,chip-medium,8,4,LED2020*', 'FUSE-1812-HC,chip,4.5,3.2,0,N25,chip-large,12,2,'].join('\n');
+      await page.getByLabel('CSV file').setInputFiles({ name: 'packages.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+      const preview = page.getByRole('table', { name: 'CSV preview' });
+      await preview.getByText(/height: The body height must be more than 0 mm/).waitFor();
+      expect(await page.getByRole('button', { name: /Import all 2 rows/ }).isDisabled()).toBe(true);
+      await page.screenshot({ path: `${SCREENSHOT_DIR}/library-csv-preview.png`, fullPage: true });
+      await page.goto(`${h.baseUrl}/library/vision-presets`);
+      await page.getByRole('table', { name: 'Vision presets' }).getByText('ball-grid', { exact: true }).waitFor();
+      await page.screenshot({ path: `${SCREENSHOT_DIR}/library-vision-presets.png` });
+      await page.goto(`${h.baseUrl}/library/machines`);
+      await page.getByRole('table', { name: 'Machines' }).getByText('HC line A (desktop)').waitFor();
+      await page.screenshot({ path: `${SCREENSHOT_DIR}/library-machines.png` });
+    } finally {
+      await page.close();
+    }
+  });
 });
