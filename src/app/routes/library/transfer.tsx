@@ -36,6 +36,7 @@ function ImportLibrary() {
         type="file"
         accept=".json,application/json"
         aria-label="Library file"
+        className="text-sm text-ink-600 file:mr-3 file:rounded file:border file:border-ink-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:font-medium file:text-ink-800 hover:file:bg-ink-100"
         onChange={async (e) => {
           const f = e.target.files?.[0];
           setResult(null);
@@ -88,7 +89,7 @@ function CsvImport() {
       <p className="text-sm text-ink-600">
         A header row, then one package per row. Columns: <span className="num text-xs">{CSV_COLUMNS.join(', ')}</span> (name, length, width and height are required; sizes in mm; nozzles and aliases separated by spaces or |). Rows with a name already in the library update it.
       </p>
-      <input type="file" accept=".csv,text/csv" aria-label="CSV file" onChange={async (e) => { const f = e.target.files?.[0]; if (f) run(await f.text()); }} />
+      <input type="file" accept=".csv,text/csv" aria-label="CSV file" className="text-sm text-ink-600 file:mr-3 file:rounded file:border file:border-ink-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:font-medium file:text-ink-800 hover:file:bg-ink-100" onChange={async (e) => { const f = e.target.files?.[0]; if (f) run(await f.text()); }} />
       <Problems error={preview.error} />
       {data && (
         <>
