@@ -180,6 +180,8 @@ export function PanelCanvas({
   // store → which layers to redraw
   useEffect(() => {
     let prev = store.getState();
+    publish(prev);
+    schedule(DIRTY_ALL);
     return store.subscribe(() => {
       const s = store.getState();
       if (s === prev) return;

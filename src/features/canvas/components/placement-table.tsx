@@ -6,6 +6,8 @@ import type { RunResult } from '../../../../shared/pipeline/types';
 import { useCanvasState, type CanvasStore } from '../store';
 
 const ROW_H = 30;
+/** Up to this many rows are all in the DOM; more are virtualised. */
+const VIRTUAL_ABOVE = 300;
 const COLS = ['#', 'Board', 'Ref', 'Package', 'Value', 'X mm', 'Y mm', 'Rot °', 'Nozzle', 'Vision'] as const;
 const WIDTHS = '3.2rem 3.6rem 4.5rem 1fr 1fr 5.6rem 5.6rem 5rem 4.2rem 1fr';
 
@@ -25,7 +27,8 @@ export function PlacementTable({ run, store, height = 320 }: { run: RunResult; s
   }, [p, query]);
   const rowOf = useMemo(() => new Map(rows.map((i, r) => [i, r])), [rows]);
   const scrollRef = useRef<HTMLDivElement>(null);
-  const virt = useVirtualizer({ count: rows.length, getScrollElement: () => scrollRef.current, estimateSize: () => ROW_H, overscan: 10 });
+  const virtual = rows.length > VIRTUAL_ABOVE;
+  const virt = useVirtualizer({ count: virtual ? rows.length : 0, getScrollElement: () => scrollRef.current, estimateSize: () => ROW_H, overscan: 10 });
   const lastScrolled = useRef<number>(-1);
   useEffect(() => {
     if (selected.size === 0) {
@@ -35,13 +38,15 @@ export function PlacementTable({ run, store, height = 320 }: { run: RunResult; s
     const first = Math.min(...selected);
     const r = rowOf.get(first);
     if (r !== undefined && first !== lastScrolled.current) {
-      virt.scrollToIndex(r, { align: 'center' });
+      if (virtual) virt.scrollToIndex(r, { align: 'center' });
+      else scrollRef.current?.querySelector(`[data-row-id="${CSS.escape(`${p.board[first]}:${p.ref[first]}`)}"]`)?.scrollIntoView?.({ block: 'nearest' });
       lastScrolled.current = first;
     }
-  }, [selected, rowOf, virt]);
+  }, [selected, rowOf, virt, virtual, p]);
 
   const filtered = dimFilters.packages.length || dimFilters.nozzles.length;
-  const items = virt.getVirtualItems();
+  const items = virtual ? virt.getVirtualItems() : rows.map((_, index) => ({ index, start: index * ROW_H }));
+  const total = virtual ? virt.getTotalSize() : rows.length * ROW_H;
   return (
     <div className="flex flex-col gap-1.5">
       <div className="flex items-center gap-2">
@@ -68,7 +73,7 @@ export function PlacementTable({ run, store, height = 320 }: { run: RunResult; s
           ))}
         </div>
         <div ref={scrollRef} className="overflow-auto" style={{ height }}>
-          <div role="rowgroup" style={{ height: virt.getTotalSize(), position: 'relative' }}>
+          <div role="rowgroup" style={{ height: total, position: 'relative' }}>
             {items.map((vi) => {
               const i = rows[vi.index];
               const sel = selected.has(i);
