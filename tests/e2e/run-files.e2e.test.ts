@@ -188,7 +188,8 @@ describe('run files in Chromium', () => {
       await form.getByRole('button', { name: 'Create token' }).click();
       const token = (await page.getByTestId('new-token').textContent())!.trim();
       expect(token).toMatch(/^pwt_/);
-      await expect(page.getByRole('region', { name: 'New token' }).textContent()).resolves.toMatch(/curl -fsS -H "Authorization: Bearer pwt_\S+" -OJ "http:\/\/127\.0\.0\.1:\d+\/api\/run-files\/[0-9a-f-]{36}\/top\.csv"/);
+      // the example names a real download URL once the run-file list has loaded
+      await expect.poll(() => page.getByRole('region', { name: 'New token' }).textContent()).toMatch(/curl -fsS -H "Authorization: Bearer pwt_\S+" -OJ "http:\/\/127\.0\.0\.1:\d+\/api\/run-files\/[0-9a-f-]{36}\/top\.csv"/);
       await page.screenshot({ path: `${SCREENSHOT_DIR}/tokens-created.png`, fullPage: true });
 
       // The token opens the download route (and only that).
