@@ -130,6 +130,54 @@ describe('canvas overlay in Chromium', () => {
     await page.screenshot({ path: `${SCREENSHOT_DIR}/canvas-faulty-measure.png` });
   });
 
+  it('an underlay image aligns with two point pairs', async () => {
+    await openPreview('faulty');
+    // an 800 × 400 px "photo" of the 80 × 40 mm panel at 10 px/mm, upright (pixel v runs down):
+    // panel (x, y) mm is pixel (10·x, 400 − 10·y); crosses at panel (10, 10) and (70, 30)
+    const dataUrl = await page.evaluate(() => {
+      const c = document.createElement('canvas');
+      c.width = 800;
+      c.height = 400;
+      const g = c.getContext('2d')!;
+      g.fillStyle = '#2f6f4f';
+      g.fillRect(0, 0, 800, 400);
+      g.strokeStyle = '#ffffff';
+      g.lineWidth = 3;
+      g.strokeRect(50, 50, 400, 300); // board 1: panel x 5…45, y 5…35
+      g.strokeRect(440, 50, 400, 300); // board 2: x 44…84
+      g.fillStyle = '#ffd000';
+      for (const [u, v] of [[100, 300], [700, 100]]) g.fillRect(u - 6, v - 6, 12, 12);
+      return c.toDataURL('image/png');
+    });
+    await page.getByLabel('Load an underlay image').setInputFiles({ name: 'faulty-photo.png', mimeType: 'image/png', buffer: Buffer.from(dataUrl.split(',')[1], 'base64') });
+    await page.getByText('faulty-photo.png').waitFor();
+    await page.getByRole('checkbox', { name: /Underlay image/ }).waitFor();
+    // before alignment: the image is stretched over the drawing's bounds (0…84 mm wide),
+    // so pixel (u, v) sits at (0.105·u, 0.105·(400 − v)) mm
+    const k = 84 / 800;
+    const screenOf = async (x: number, y: number) => {
+      const view = (await page.getByTestId('panel-canvas').getAttribute('data-view'))!.split(',').map(Number);
+      const box = (await page.getByTestId('panel-canvas').boundingBox())!;
+      return { x: box.x + view[1] + view[0] * x, y: box.y + view[2] - view[0] * y };
+    };
+    await page.getByRole('button', { name: 'Align with two points' }).click();
+    for (const [[u, v], [x, y]] of [[[100, 300], [10, 10]], [[700, 100], [70, 30]]] as const) {
+      const img = await screenOf(k * u, k * (400 - v));
+      await page.mouse.click(img.x, img.y);
+      const pan = await screenOf(x, y);
+      await page.mouse.click(pan.x, pan.y);
+    }
+    const status = await page.getByText(/^Aligned: /).textContent();
+    // 0.1 mm per pixel = 100 µm per pixel, no turn (to the click's pixel rounding)
+    const [, um, turn] = status!.match(/Aligned: ([\d.]+) µm per pixel, turned (-?[\d.]+)°/)!;
+    expect(Math.abs(Number(um) - 100)).toBeLessThan(1);
+    expect(Math.abs(Number(turn))).toBeLessThan(0.5);
+    await page.getByLabel('Underlay opacity').fill('0.8');
+    await expect(page.getByText('80 %')).toBeTruthy();
+    await page.mouse.move(5, 5);
+    await page.getByTestId('panel-canvas').screenshot({ path: `${SCREENSHOT_DIR}/canvas-faulty-underlay.png` });
+  });
+
   it.each([
     ['weather-station', 'top', '1:U1'],
     ['weather-station', 'bottom', '1:U7'],

@@ -59,7 +59,7 @@ function outlinePath(ctx: CanvasRenderingContext2D, pts: readonly { x: number; y
 }
 
 /** Panel edge, machine reach, boards (numbers, skipped ones crossed), fiducials. */
-export function drawBase(ctx: CanvasRenderingContext2D, scene: Scene, vp: Viewport, layers: LayerVisibility) {
+export function drawBase(ctx: CanvasRenderingContext2D, scene: Scene, vp: Viewport, layers: LayerVisibility, underlayShown = false) {
   const { view: v } = vp;
   const run = scene.run;
   const px = 1 / v.s;
@@ -67,8 +67,11 @@ export function drawBase(ctx: CanvasRenderingContext2D, scene: Scene, vp: Viewpo
   if (layers.panel) {
     ctx.beginPath();
     outlinePath(ctx, run.panel.outline);
-    ctx.fillStyle = C.panelFill;
-    ctx.fill();
+    if (!underlayShown) {
+      // the panel's own fill would hide an underlay image drawn below it
+      ctx.fillStyle = C.panelFill;
+      ctx.fill();
+    }
     ctx.lineWidth = 1.5 * px;
     ctx.strokeStyle = C.panelEdge;
     ctx.stroke();
@@ -85,8 +88,10 @@ export function drawBase(ctx: CanvasRenderingContext2D, scene: Scene, vp: Viewpo
   if (layers.boards) {
     ctx.beginPath();
     for (const b of run.boards) if (!b.skipped) outlinePath(ctx, b.outline);
-    ctx.fillStyle = C.boardFill;
-    ctx.fill();
+    if (!underlayShown) {
+      ctx.fillStyle = C.boardFill;
+      ctx.fill();
+    }
     ctx.lineWidth = 1 * px;
     ctx.strokeStyle = C.boardEdge;
     ctx.stroke();

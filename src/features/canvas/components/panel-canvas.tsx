@@ -57,6 +57,12 @@ export interface PanelCanvasProps {
   label?: string;
 }
 
+/** A turn in (−180, 180], 2 decimals, without a "-0.00". */
+const signedTurn = (d: number) => {
+  const v = d > 180 ? d - 360 : d;
+  return Math.abs(v) < 0.005 ? '0.00' : v.toFixed(2);
+};
+
 const DIRTY_UNDERLAY = 1, DIRTY_BASE = 2, DIRTY_BODIES = 4, DIRTY_OVERLAY = 8, DIRTY_ALL = 15;
 const CLICK_SLOP = 4;
 
@@ -141,18 +147,18 @@ export function PanelCanvas({
     underlayRef.current = underlay;
     if (!underlay) {
       imageRef.current = null;
-      schedule(DIRTY_UNDERLAY);
+      schedule(DIRTY_UNDERLAY | DIRTY_BASE);
       return;
     }
     if (imageRef.current?.src === underlay.url || imageRef.current?.dataset.url === underlay.url) {
-      schedule(DIRTY_UNDERLAY | DIRTY_OVERLAY);
+      schedule(DIRTY_UNDERLAY | DIRTY_BASE | DIRTY_OVERLAY);
       return;
     }
     const img = new Image();
     img.dataset.url = underlay.url;
     img.onload = () => {
       imageRef.current = img;
-      schedule(DIRTY_UNDERLAY | DIRTY_OVERLAY);
+      schedule(DIRTY_UNDERLAY | DIRTY_BASE | DIRTY_OVERLAY);
     };
     img.src = underlay.url;
   }, [underlay, schedule]);
@@ -233,7 +239,7 @@ export function PanelCanvas({
   };
   const sceneBase = (c: Konva.Context) => {
     const s = store.getState();
-    if (s.view) drawBase(native(c), sceneRef.current, vp(), s.layers);
+    if (s.view) drawBase(native(c), sceneRef.current, vp(), s.layers, !!(underlayRef.current && imageRef.current && s.layers.underlay));
   };
   // Bodies and findings are the costly part: they are drawn into a bitmap (the viewport and a
   // quarter of a viewport around it) which a pan or a zoom only moves and scales; 150 ms after the view stops
@@ -457,7 +463,7 @@ export function PanelCanvas({
           const f = fitUnderlay(e.alignImage, e.alignPanel);
           onUnderlayChange?.({ ...u, transform: f.transform, pairs: { image: [...e.alignImage], panel: [...e.alignPanel] } });
           setAlignError(null);
-          setAlignStep(`Aligned: ${(f.scale * 1000).toFixed(3)} µm per pixel, turned ${f.rotationDeg.toFixed(2)}°.`);
+          setAlignStep(`Aligned: ${(f.scale * 1000).toFixed(3)} µm per pixel, turned ${signedTurn(f.rotationDeg)}°.`);
         } catch (err) {
           setAlignError((err as Error).message);
           setAlignStep(null);
