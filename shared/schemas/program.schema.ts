@@ -131,6 +131,8 @@ export const revisionSummarySchema = z.object({
   checkedAt: z.string().nullable(),
   errors: z.number().int().nullable(),
   warnings: z.number().int().nullable(),
+  /** error findings neither fixed nor waived (null when not checked) */
+  openErrors: z.number().int().nullable(),
   submittedAt: z.string().nullable(),
   releasedAt: z.string().nullable(),
   createdAt: z.string(),

@@ -120,6 +120,7 @@ describe('programs: upload → release → download', () => {
     expect(dl.status).toBe(200);
     expect(dl.headers['content-disposition']).toMatch(/led-strip-A-top\.csv/);
     expect(dl.headers['x-content-sha256']).toBe(csvFile.sha256);
+    expect(dl.headers['x-file-sha256']).toBe(createHash('sha256').update(dl.body as Buffer).digest('hex'));
     const text = (dl.body as Buffer).toString('utf8');
     // PLACEMENT-LIST.md: sha256 = hex digest of every byte after the metadata lines.
     const body = text.split('\n').filter((l) => !l.startsWith('# ')).join('\n');
@@ -157,7 +158,9 @@ describe('programs: upload → release → download', () => {
       author.a.post(`/api/revisions/${revId}/withdraw`).set('X-CSRF-Token', t),
       upload(author, revId, sampleFile('led-strip/led-strip.csv'), 'led-strip.csv'),
     ];
-    for (const res of await Promise.all(writes)) expect(res.status, `${res.req.method} ${res.req.path}: ${JSON.stringify(res.body)}`).toBe(409);
+    const names = ['settings', 'overrides', 'checks', 'submit', 'waivers', 'comments', 'underlay', 'withdraw', 'centroid'];
+    const results = await Promise.all(writes);
+    results.forEach((res, i) => expect(res.status, `${names[i]}: ${JSON.stringify(res.body)}`).toBe(409));
     const after = await ctx.ds.getRepository(ProgramRevision).findOneByOrFail({ id: revId });
     expect(after.state).toBe('released');
     expect(after.version).toBe(d.version);

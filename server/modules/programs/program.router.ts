@@ -1,5 +1,6 @@
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import multer from 'multer';
+import { createHash } from 'node:crypto';
 import { z } from 'zod';
 import { uuidParamSchema } from '../../../shared/schemas/auth.schema';
 import { importOptionsSchema } from '../../../shared/schemas/job.schema';
@@ -176,7 +177,10 @@ export function registerProgramRoutes(api: ApiRoutes, programs: ProgramService, 
     const { file, name } = await runFiles.file(id(req), side, format);
     res.setHeader('Content-Type', format === 'csv' ? 'text/csv; charset=utf-8' : 'application/json; charset=utf-8');
     res.setHeader('Content-Disposition', `attachment; filename="${name}"`);
+    // The list's own digest (PLACEMENT-LIST.md: CSV — every byte after the metadata lines), and
+    // the digest of the whole file as sent, for tools like sha256sum.
     res.setHeader('X-Content-SHA256', file.sha256);
+    res.setHeader('X-File-SHA256', createHash('sha256').update(file.bytes).digest('hex'));
     res.setHeader('Cache-Control', 'no-store');
     res.send(file.bytes);
   });

@@ -76,7 +76,21 @@ export class ProgramService {
     return (id: string | null) => (id ? (map.get(id) ?? null) : null);
   }
 
-  private summary(r: ProgramRevision, ref: (id: string | null) => { id: string; name: string; email: string } | null): RevisionSummary {
+  /** Error findings neither fixed nor waived, per revision (counted in the database). */
+  private async openErrorCounts(ids: string[]): Promise<Map<string, number>> {
+    if (!ids.length) return new Map();
+    const rows: { id: string; n: number }[] = await this.ds.query(
+      `SELECT r.id, count(f.value)::int AS n
+         FROM program_revisions r
+         LEFT JOIN LATERAL jsonb_array_elements(COALESCE(r.findings, '[]'::jsonb)) f ON f.value->>'severity' = 'error'
+              AND NOT EXISTS (SELECT 1 FROM revision_waivers w WHERE w.revision_id = r.id AND w.finding_key = f.value->>'key')
+        WHERE r.id = ANY($1) GROUP BY r.id`,
+      [ids],
+    );
+    return new Map(rows.map((x) => [x.id, x.n]));
+  }
+
+  private summary(r: ProgramRevision, ref: (id: string | null) => { id: string; name: string; email: string } | null, open?: Map<string, number>): RevisionSummary {
     const imported = r.imported as unknown as ImportResult | null;
     const s = r.findingsSummary as { errors?: number; warnings?: number } | null;
     return {
@@ -91,6 +105,7 @@ export class ProgramService {
       checkedAt: r.checkedAt?.toISOString() ?? null,
       errors: s?.errors ?? null,
       warnings: s?.warnings ?? null,
+      openErrors: r.findings === null ? null : (open?.get(r.id) ?? s?.errors ?? null),
       submittedAt: r.submittedAt?.toISOString() ?? null,
       releasedAt: r.releasedAt?.toISOString() ?? null,
       createdAt: r.createdAt.toISOString(),
@@ -105,10 +120,11 @@ export class ProgramService {
       ? await this.ds.getRepository(ProgramRevision).find({ where: { programId: In(programs.map((p) => p.id)) }, order: { createdAt: 'ASC' }, select: { id: true, programId: true, label: true, state: true, authorId: true, reviewerId: true, centroidName: true, checkedAt: true, findingsSummary: true, submittedAt: true, releasedAt: true, createdAt: true, updatedAt: true, version: true, imported: true } })
       : [];
     const ref = await this.userRefs([...programs.map((p) => p.ownerId), ...revisions.flatMap((r) => [r.authorId, r.reviewerId])]);
-    return programs.map((p) => this.programDto(p, revisions.filter((r) => r.programId === p.id), ref));
+    const open = await this.openErrorCounts(revisions.map((r) => r.id));
+    return programs.map((p) => this.programDto(p, revisions.filter((r) => r.programId === p.id), ref, open));
   }
 
-  private programDto(p: Program, revs: ProgramRevision[], ref: (id: string | null) => { id: string; name: string; email: string } | null): ProgramDto {
+  private programDto(p: Program, revs: ProgramRevision[], ref: (id: string | null) => { id: string; name: string; email: string } | null, open?: Map<string, number>): ProgramDto {
     return {
       id: p.id,
       name: p.name,
@@ -117,7 +133,7 @@ export class ProgramService {
       owner: ref(p.ownerId),
       createdAt: p.createdAt.toISOString(),
       updatedAt: p.updatedAt.toISOString(),
-      revisions: revs.map((r) => this.summary(r, ref)),
+      revisions: revs.map((r) => this.summary(r, ref, open)),
     };
   }
 
@@ -126,7 +142,7 @@ export class ProgramService {
     if (!p) throw new NotFoundError('The program');
     const revs = await this.ds.getRepository(ProgramRevision).find({ where: { programId: id }, order: { createdAt: 'ASC' } });
     const ref = await this.userRefs([p.ownerId, ...revs.flatMap((r) => [r.authorId, r.reviewerId])]);
-    return this.programDto(p, revs, ref);
+    return this.programDto(p, revs, ref, await this.openErrorCounts(revs.map((r) => r.id)));
   }
 
   async getRevisionEntity(id: string, manager?: EntityManager, lock = false): Promise<ProgramRevision> {
@@ -146,11 +162,12 @@ export class ProgramService {
     ]);
     const sizes: { id: string; n: number }[] = files.length ? await this.ds.query(`SELECT id, octet_length(bytes) AS n FROM release_files WHERE revision_id = $1`, [id]) : [];
     const ref = await this.userRefs([r.authorId, r.reviewerId]);
+    const open = await this.openErrorCounts([r.id]);
     const imported = r.imported as unknown as ImportResult | null;
     const isEngineer = user.roles.includes('engineer') || user.roles.includes('admin');
     const openRevision = await this.ds.getRepository(ProgramRevision).exists({ where: { programId: r.programId, state: In(['draft', 'in-review']) } });
     return {
-      ...this.summary(r, ref),
+      ...this.summary(r, ref, open),
       program: { id: program.id, name: program.name, product: program.product, board: program.board },
       settings: revisionSettingsSchema.parse(r.settings),
       centroidSha256: r.centroidSha256,

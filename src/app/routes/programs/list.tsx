@@ -21,7 +21,7 @@ const columns: ColumnDef<ProgramDto, any>[] = [
   { accessorKey: 'product', header: 'Product' },
   { accessorKey: 'board', header: 'Board' },
   { id: 'revision', header: 'Latest revision', accessorFn: (p) => latest(p)?.label ?? '', cell: ({ row }) => { const r = latest(row.original); return r ? <span className="flex items-center gap-2"><span className="num">{r.label}</span><StateBadge state={r.state} /></span> : null; } },
-  { id: 'findings', header: 'Findings', accessorFn: (p) => latest(p)?.errors ?? -1, cell: ({ row }) => { const r = latest(row.original); if (!r || r.errors === null) return <span className="text-xs text-ink-400">not checked</span>; return <span className="num text-xs"><span className={r.errors ? 'text-sev-error' : ''}>{r.errors} errors</span> · {r.warnings} warnings</span>; } },
+  { id: 'findings', header: 'Findings', accessorFn: (p) => latest(p)?.errors ?? -1, cell: ({ row }) => { const r = latest(row.original); if (!r || r.errors === null) return <span className="text-xs text-ink-400">not checked</span>; const waived = (r.errors ?? 0) - (r.openErrors ?? 0); return <span className="num text-xs"><span className={r.openErrors ? 'text-sev-error' : ''}>{r.errors} errors{waived > 0 ? ` (${waived} waived)` : ''}</span> · {r.warnings} warnings</span>; } },
   { id: 'owner', header: 'Owner', accessorFn: (p) => p.owner?.name ?? '' },
   { accessorKey: 'updatedAt', header: 'Changed', cell: ({ getValue }) => <span className="num text-xs">{dateTime(getValue() as string)}</span> },
 ];

@@ -37,7 +37,7 @@ export default function ProgramRoute() {
             <StateBadge state={r.state} />
             <span className="text-sm text-ink-600">{r.centroidName ?? 'no centroid file yet'}</span>
             <span className="num text-xs text-ink-500">{r.placements} parts</span>
-            <span className="num text-xs text-ink-500">{r.errors === null ? 'not checked' : `${r.errors} errors · ${r.warnings} warnings`}</span>
+            <span className="num text-xs text-ink-500">{r.errors === null ? 'not checked' : `${r.errors} errors${(r.errors ?? 0) - (r.openErrors ?? 0) > 0 ? ` (${(r.errors ?? 0) - (r.openErrors ?? 0)} waived)` : ''} · ${r.warnings} warnings`}</span>
             <span className="ml-auto text-xs text-ink-500">by {r.author?.name ?? '—'}{r.releasedAt ? ` · released ${dateTime(r.releasedAt)}` : ` · ${dateTime(r.updatedAt)}`}</span>
             <Link className="text-sm font-medium text-copper-700 hover:underline" to={`/programs/revisions/${r.id}/${r.state === 'draft' ? 'import' : 'release'}`}>Open</Link>
           </li>

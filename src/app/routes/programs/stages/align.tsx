@@ -97,14 +97,14 @@ export default function AlignStage() {
                   <NumInput label="Design X" value={f.x} onChange={(v) => setFid(i, { ...f, x: v as number })} />
                   <NumInput label="Design Y" value={f.y} onChange={(v) => setFid(i, { ...f, y: v as number })} />
                   <NumInput label="Clear radius" value={f.clearRadius ?? 1} onChange={(v) => setFid(i, { ...f, clearRadius: v ?? 1 })} />
-                  <Button variant="ghost" aria-label={`Remove fiducial ${f.name}`} onClick={() => s.setDraft({ ...s.draft, fiducials: fids.filter((_, j) => j !== i) })}>✕</Button>
+                  {!ro && <Button variant="ghost" aria-label={`Remove fiducial ${f.name}`} onClick={() => s.setDraft({ ...s.draft, fiducials: fids.filter((_, j) => j !== i) })}>✕</Button>}
                 </div>
                 {f.frame === 'panel' ? (
                   <div className="mt-2 grid grid-cols-[7rem_1fr_1fr_auto] items-end gap-2">
                     <span className="pb-2 text-xs text-ink-500">Measured</span>
                     <NumInput label="Machine X" value={f.measured?.x} onChange={(v) => setFid(i, { ...f, measured: v === undefined && f.measured?.y === undefined ? undefined : { x: v as number, y: f.measured?.y as number } })} />
                     <NumInput label="Machine Y" value={f.measured?.y} onChange={(v) => setFid(i, { ...f, measured: v === undefined && f.measured?.x === undefined ? undefined : { x: f.measured?.x as number, y: v as number } })} />
-                    {f.measured && <Button variant="ghost" onClick={() => setFid(i, { ...f, measured: undefined })}>Clear</Button>}
+                    {!ro && f.measured && <Button variant="ghost" onClick={() => setFid(i, { ...f, measured: undefined })}>Clear</Button>}
                   </div>
                 ) : (
                   <div className="mt-2 flex flex-col gap-1">
@@ -114,16 +114,16 @@ export default function AlignStage() {
                         <span className="num pb-2 text-xs">board {b}</span>
                         <NumInput label="Machine X" value={m.x} onChange={(v) => setFid(i, { ...f, measured: { ...(f.measured ?? {}), [b]: { ...m, x: v as number } } })} />
                         <NumInput label="Machine Y" value={m.y} onChange={(v) => setFid(i, { ...f, measured: { ...(f.measured ?? {}), [b]: { ...m, y: v as number } } })} />
-                        <Button variant="ghost" aria-label={`Remove board ${b} measurement`} onClick={() => { const n = { ...(f.measured ?? {}) }; delete n[b]; setFid(i, { ...f, measured: Object.keys(n).length ? n : undefined }); }}>✕</Button>
+                        {!ro && <Button variant="ghost" aria-label={`Remove board ${b} measurement`} onClick={() => { const n = { ...(f.measured ?? {}) }; delete n[b]; setFid(i, { ...f, measured: Object.keys(n).length ? n : undefined }); }}>✕</Button>}
                       </div>
                     ))}
-                    <Button variant="secondary" className="self-start" onClick={() => { const used = Object.keys(f.measured ?? {}).map(Number); const next = used.length ? Math.max(...used) + 1 : 1; setFid(i, { ...f, measured: { ...(f.measured ?? {}), [String(next)]: { x: 0, y: 0 } } }); }}>Add a board measurement</Button>
+                    {!ro && <Button variant="secondary" className="self-start" onClick={() => { const used = Object.keys(f.measured ?? {}).map(Number); const next = used.length ? Math.max(...used) + 1 : 1; setFid(i, { ...f, measured: { ...(f.measured ?? {}), [String(next)]: { x: 0, y: 0 } } }); }}>Add a board measurement</Button>}
                   </div>
                 )}
               </div>
             ))}
           </div>
-          <Button variant="secondary" className="mt-3" onClick={() => s.setDraft({ ...s.draft, fiducials: [...fids, { name: `F${fids.length + 1}`, side: 'top', frame: 'panel', x: 0, y: 0, clearRadius: 1 }] })}>Add a fiducial</Button>
+          {!ro && <Button variant="secondary" className="mt-3" onClick={() => s.setDraft({ ...s.draft, fiducials: [...fids, { name: `F${fids.length + 1}`, side: 'top', frame: 'panel', x: 0, y: 0, clearRadius: 1 }] })}>Add a fiducial</Button>}
         </fieldset>
 
         <fieldset disabled={ro} className="grid grid-cols-4 gap-3 rounded border border-ink-200 bg-white p-4">
