@@ -97,17 +97,17 @@ export function naturalKey(ref: string): string | null {
   return out;
 }
 
-/** Sort references in natural order (compareRefs), fast for long lists. */
+/** Sort references in natural order (compareRefs), fast for long lists: each reference's natural
+ * key is made once, then plain string comparison does the work. */
 export function sortRefsNatural(refs: string[]): string[] {
-  const keys = new Map<string, string>();
-  for (const r of refs) {
-    const k = naturalKey(r);
+  const items: { k: string; r: string }[] = new Array(refs.length);
+  for (let i = 0; i < refs.length; i++) {
+    const k = naturalKey(refs[i]);
     if (k === null) return [...refs].sort(compareRefs);
-    keys.set(r, k);
+    items[i] = { k, r: refs[i] };
   }
-  return [...refs].sort((a, b) => {
-    const ka = keys.get(a)!;
-    const kb = keys.get(b)!;
-    return ka < kb ? -1 : ka > kb ? 1 : compareRefs(a, b);
-  });
+  items.sort((a, b) => (a.k < b.k ? -1 : a.k > b.k ? 1 : compareRefs(a.r, b.r)));
+  const out: string[] = new Array(refs.length);
+  for (let i = 0; i < items.length; i++) out[i] = items[i].r;
+  return out;
 }

@@ -18,6 +18,7 @@ import {
 } from './geom';
 import { sortRefsNatural } from './natural';
 import {
+  verifyProbe,
   FindingSink,
   K_BODY,
   K_BOARD_OVERLAP,
@@ -93,24 +94,8 @@ export function buildReport(
   // swap[k] = 1 when record k's second part comes first in "BOARD:REF" order
   const swap = new Uint8Array(n);
   const keys = sortKeys(input, sink, swap);
-  const order = new Array<number>(n);
-  for (let k = 0; k < n; k++) order[k] = k;
-  // two packed numbers per record when the values fit (they do for any real panel), else five
-  const packed = packKeys(keys, n);
-  if (packed) {
-    const [k1, k2] = packed;
-    order.sort((x, y) => k1[x] - k1[y] || k2[x] - k2[y] || x - y);
-  } else {
-    order.sort((x, y) => {
-      const bx = 5 * x;
-      const by = 5 * y;
-      for (let f = 0; f < 5; f++) {
-        const d = keys[bx + f] - keys[by + f];
-        if (d !== 0) return d;
-      }
-      return x - y;
-    });
-  }
+  const order = sortOrder(keys, n);
+  if (verifyProbe.onPhase) verifyProbe.onPhase('sort');
   const ctx: Ctx = { input, P, O, sink, swap };
   const kept = Math.min(n, limit);
   const findings: Finding[] = new Array(kept);
@@ -197,6 +182,27 @@ function sortKeys(input: VerifyInput, sink: FindingSink, swap: Uint8Array): Floa
     }
   }
   return keys;
+}
+
+/** Record indices in report order (keys: five numbers per record; ties by index). */
+function sortOrder(keys: Float64Array, n: number): number[] {
+  const order = new Array<number>(n);
+  for (let k = 0; k < n; k++) order[k] = k;
+  // two packed numbers per record when the values fit (they do for any real panel), else five
+  const packed = packKeys(keys, n);
+  if (packed) {
+    const [k1, k2] = packed;
+    order.sort((x, y) => k1[x] - k1[y] || k2[x] - k2[y] || x - y);
+  } else {
+    order.sort((x, y) => {
+      for (let f = 0; f < 5; f++) {
+        const d = keys[5 * x + f] - keys[5 * y + f];
+        if (d !== 0) return d;
+      }
+      return x - y;
+    });
+  }
+  return order;
 }
 
 const P21 = 2 ** 21;

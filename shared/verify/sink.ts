@@ -17,6 +17,9 @@ export const K_NO_NOZZLE = 10;
 export const K_OVERHANG = 11;
 export const RAW_KINDS = 12;
 
+/** Measurement hook for the bench: called at the end of each phase when set (null otherwise). */
+export const verifyProbe: { onPhase: ((phase: string) => void) | null } = { onPhase: null };
+
 export class FindingSink {
   /** records kept */
   size = 0;

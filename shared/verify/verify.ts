@@ -25,6 +25,7 @@ import {
   convexSatDepth,
 } from './geom';
 import {
+  verifyProbe,
   FindingSink,
   K_BODY,
   K_BOARD_OVERLAP,
@@ -96,8 +97,7 @@ export class VerifyInputError extends Error {
   override name = 'VerifyInputError';
 }
 
-/** Measurement hook for the bench: called at the end of each phase when set (null otherwise). */
-export const verifyProbe: { onPhase: ((phase: string) => void) | null } = { onPhase: null };
+export { verifyProbe } from './sink';
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
@@ -452,91 +452,115 @@ export function planQueries(P: Prepared, ids: Int32Array, groupSize = GROUP_SIZE
 // ---------------------------------------------------------------------------------------------
 // Pair kinds: body overlap, courtyard overlap, nozzle shadow
 
-/** The exact tests of one pair, shared by the indexed and the brute-force runs. */
-function makePairTests(P: Prepared, sink: FindingSink) {
-  const { cx, cy, c, s, hx, hy, g, h, R } = P;
+// The exact tests of one pair, shared by the indexed and the brute-force runs. Module-level
+// functions (not closures made per run), so optimized callers keep a stable call target.
 
-  /** Bodies and courtyards of i and j (i ≠ j, same side). */
-  const overlapPair = (i: number, j: number): void => {
-    const ax = cx[i];
-    const ay = cy[i];
-    const dx = cx[j] - ax;
-    const dy = cy[j] - ay;
-    const ac = c[i];
-    const as = s[i];
-    const bc = c[j];
-    const bs = s[j];
-    const gi = g[i];
-    const gj = g[j];
-    const ahx = hx[i];
-    const ahy = hy[i];
-    const bhx = hx[j];
-    const bhy = hy[j];
-    const C = Math.abs(ac * bc + as * bs);
-    const S = Math.abs(as * bc - ac * bs);
-    // courtyards (bodies grown by their courtyard excess): the four separating axes, early exit
-    const pA = Math.abs(dx * ac + dy * as);
-    let d = ahx + gi + (bhx + gj) * C + (bhy + gj) * S - pA;
-    if (d <= TOUCH_EPS) return;
-    const pB = Math.abs(dy * ac - dx * as);
-    let o = ahy + gi + (bhx + gj) * S + (bhy + gj) * C - pB;
-    if (o <= TOUCH_EPS) return;
-    if (o < d) d = o;
-    const pC = Math.abs(dx * bc + dy * bs);
-    o = (ahx + gi) * C + (ahy + gi) * S + bhx + gj - pC;
-    if (o <= TOUCH_EPS) return;
-    if (o < d) d = o;
-    const pD = Math.abs(dy * bc - dx * bs);
-    o = (ahx + gi) * S + (ahy + gi) * C + bhy + gj - pD;
-    if (o <= TOUCH_EPS) return;
-    if (o < d) d = o;
-    if (rectIntersectionArea(ax, ay, ac, as, ahx + gi, ahy + gi, cx[j], cy[j], bc, bs, bhx + gj, bhy + gj) <= TOUCH_EPS_AREA) {
-      return;
-    }
-    // the bodies themselves
-    let bd = ahx + bhx * C + bhy * S - pA;
-    o = ahy + bhx * S + bhy * C - pB;
-    if (o < bd) bd = o;
-    o = ahx * C + ahy * S + bhx - pC;
-    if (o < bd) bd = o;
-    o = ahx * S + ahy * C + bhy - pD;
-    if (o < bd) bd = o;
-    if (bd > TOUCH_EPS && rectIntersectionArea(ax, ay, ac, as, ahx, ahy, cx[j], cy[j], bc, bs, bhx, bhy) > TOUCH_EPS_AREA) {
-      sink.add(K_BODY, i, j, 0, bd, 0);
-    } else {
-      sink.add(K_COURTYARD, i, j, 0, d, NaN);
-    }
-  };
+/** Bodies and courtyards of i and j (i ≠ j, same side). */
+function overlapPair(P: Prepared, sink: FindingSink, i: number, j: number): void {
+  const { cx, cy, c, s, hx, hy, g } = P;
+  const ax = cx[i];
+  const ay = cy[i];
+  const dx = cx[j] - ax;
+  const dy = cy[j] - ay;
+  const ac = c[i];
+  const as = s[i];
+  const bc = c[j];
+  const bs = s[j];
+  const gi = g[i];
+  const gj = g[j];
+  const ahx = hx[i];
+  const ahy = hy[i];
+  const bhx = hx[j];
+  const bhy = hy[j];
+  const C = Math.abs(ac * bc + as * bs);
+  const S = Math.abs(as * bc - ac * bs);
+  // courtyards (bodies grown by their courtyard excess): the four separating axes, early exit
+  const pA = Math.abs(dx * ac + dy * as);
+  let d = ahx + gi + (bhx + gj) * C + (bhy + gj) * S - pA;
+  if (d <= TOUCH_EPS) return;
+  const pB = Math.abs(dy * ac - dx * as);
+  let o = ahy + gi + (bhx + gj) * S + (bhy + gj) * C - pB;
+  if (o <= TOUCH_EPS) return;
+  if (o < d) d = o;
+  const pC = Math.abs(dx * bc + dy * bs);
+  o = (ahx + gi) * C + (ahy + gi) * S + bhx + gj - pC;
+  if (o <= TOUCH_EPS) return;
+  if (o < d) d = o;
+  const pD = Math.abs(dy * bc - dx * bs);
+  o = (ahx + gi) * S + (ahy + gi) * C + bhy + gj - pD;
+  if (o <= TOUCH_EPS) return;
+  if (o < d) d = o;
+  if (rectIntersectionArea(ax, ay, ac, as, ahx + gi, ahy + gi, cx[j], cy[j], bc, bs, bhx + gj, bhy + gj) <= TOUCH_EPS_AREA) {
+    return;
+  }
+  // the bodies themselves
+  let bd = ahx + bhx * C + bhy * S - pA;
+  o = ahy + bhx * S + bhy * C - pB;
+  if (o < bd) bd = o;
+  o = ahx * C + ahy * S + bhx - pC;
+  if (o < bd) bd = o;
+  o = ahx * S + ahy * C + bhy - pD;
+  if (o < bd) bd = o;
+  if (bd > TOUCH_EPS && rectIntersectionArea(ax, ay, ac, as, ahx, ahy, cx[j], cy[j], bc, bs, bhx, bhy) > TOUCH_EPS_AREA) {
+    sink.add(K_BODY, i, j, 0, bd, 0);
+  } else {
+    sink.add(K_COURTYARD, i, j, 0, d, NaN);
+  }
+}
 
-  /** Does the taller neighbour j (h[j] − h[i] > 0.5 already known) lie, by its body, within the
-   * nozzle holder radius of i's centre? */
-  const shadowPair = (i: number, j: number): void => {
-    const r = R[i] - TOUCH_EPS;
-    if (r <= 0) return;
-    const dx = cx[i] - cx[j];
-    const dy = cy[i] - cy[j];
-    const cj = c[j];
-    const sj = s[j];
-    let lx = Math.abs(dx * cj + dy * sj) - hx[j];
-    if (lx >= r) return;
-    let ly = Math.abs(dy * cj - dx * sj) - hy[j];
-    if (ly >= r) return;
-    if (lx < 0) lx = 0;
-    if (ly < 0) ly = 0;
-    const d2 = lx * lx + ly * ly;
-    if (d2 < r * r) {
-      const dist = Math.sqrt(d2);
-      sink.add(K_SHADOW, i, j, 0, R[i] - dist, dist);
-    }
-  };
+/** Does the taller neighbour j (h[j] − h[i] > 0.5 already known) lie, by its body, within the
+ * nozzle holder radius of i's centre? */
+function shadowPair(P: Prepared, sink: FindingSink, i: number, j: number): void {
+  const { cx, cy, c, s, hx, hy, R } = P;
+  const r = R[i] - TOUCH_EPS;
+  if (r <= 0) return;
+  const dx = cx[i] - cx[j];
+  const dy = cy[i] - cy[j];
+  const cj = c[j];
+  const sj = s[j];
+  let lx = Math.abs(dx * cj + dy * sj) - hx[j];
+  if (lx >= r) return;
+  let ly = Math.abs(dy * cj - dx * sj) - hy[j];
+  if (ly >= r) return;
+  if (lx < 0) lx = 0;
+  if (ly < 0) ly = 0;
+  const d2 = lx * lx + ly * ly;
+  if (d2 < r * r) {
+    const dist = Math.sqrt(d2);
+    sink.add(K_SHADOW, i, j, 0, R[i] - dist, dist);
+  }
+}
 
-  return { overlapPair, shadowPair, h, R };
+// The current group's candidates, collected next to each other straight from the tree (its boxes
+// come with each hit), so flatbush builds no result array. Module state: the engine is
+// synchronous and never re-entered.
+let candBox = new Float64Array(1024);
+let candIdx = new Int32Array(256);
+let candCount = 0;
+
+function collectCandidate(kj: number, x0: number, y0: number, x1: number, y1: number): boolean {
+  const n = candCount;
+  if (n === candIdx.length) {
+    const nk = new Int32Array(2 * n);
+    nk.set(candIdx);
+    candIdx = nk;
+    const nb = new Float64Array(8 * n);
+    nb.set(candBox);
+    candBox = nb;
+  }
+  candIdx[n] = kj;
+  const o = 4 * n;
+  candBox[o] = x0;
+  candBox[o + 1] = y0;
+  candBox[o + 2] = x1;
+  candBox[o + 3] = y1;
+  candCount = n + 1;
+  return false;
 }
 
 function pairsIndexed(P: Prepared, ids: Int32Array, tree: Flatbush | null, sink: FindingSink): void {
   if (!tree) return;
-  const { overlapPair, h, R } = makePairTests(P, sink);
-  const { cx, cy, hx, hy, gex, gey } = P;
+  const { cx, cy, hx, hy, gex, gey, h, R } = P;
   const cosA = P.c;
   const sinA = P.s;
   const plan = planQueries(P, ids);
@@ -551,37 +575,13 @@ function pairsIndexed(P: Prepared, ids: Int32Array, tree: Flatbush | null, sink:
     lb[4 * k + 2] = cx[i] + gex[i];
     lb[4 * k + 3] = cy[i] + gey[i];
   }
-  // the current group's candidates, collected next to each other straight from the tree (its
-  // boxes come with each hit), so flatbush builds no result array
-  let cb = new Float64Array(1024);
-  let ck = new Int32Array(256);
-  let nc = 0;
-  const collect = (kj: number, x0: number, y0: number, x1: number, y1: number): boolean => {
-    if (nc === ck.length) {
-      const nk = new Int32Array(2 * nc);
-      nk.set(ck);
-      ck = nk;
-      const nb = new Float64Array(8 * nc);
-      nb.set(cb);
-      cb = nb;
-    }
-    ck[nc] = kj;
-    const o = 4 * nc;
-    cb[o] = x0;
-    cb[o + 1] = y0;
-    cb[o + 2] = x1;
-    cb[o + 3] = y1;
-    nc++;
-    return false;
-  };
   for (let g = 0; g < plan.groups; g++) {
     // one descent of the tree for the whole group
-    nc = 0;
-    tree.search(box[4 * g], box[4 * g + 1], box[4 * g + 2], box[4 * g + 3], collect);
-    // locals for the scan (the closure's variables may be replaced when it grows them)
-    const n = nc;
-    const bb = cb;
-    const kk = ck;
+    candCount = 0;
+    tree.search(box[4 * g], box[4 * g + 1], box[4 * g + 2], box[4 * g + 3], collectCandidate);
+    const n = candCount;
+    const bb = candBox;
+    const kk = candIdx;
     const end = start[g + 1];
     for (let t = start[g]; t < end; t++) {
       const k = order[t];
@@ -631,14 +631,14 @@ function pairsIndexed(P: Prepared, ids: Int32Array, tree: Flatbush | null, sink:
           }
         }
         // each unordered pair once (from its lower local index), when the grown boxes meet
-        if (kj > k && x0 <= gx1 && x1 >= gx0 && y0 <= gy1 && y1 >= gy0) overlapPair(i, j);
+        if (kj > k && x0 <= gx1 && x1 >= gx0 && y0 <= gy1 && y1 >= gy0) overlapPair(P, sink, i, j);
       }
     }
   }
 }
 
 function pairsBrute(P: Prepared, ids: Int32Array, sink: FindingSink): void {
-  const { overlapPair, shadowPair, h, R } = makePairTests(P, sink);
+  const { h, R } = P;
   const m = ids.length;
   for (let a = 0; a < m; a++) {
     const i = ids[a];
@@ -647,9 +647,9 @@ function pairsBrute(P: Prepared, ids: Int32Array, sink: FindingSink): void {
     for (let b = a + 1; b < m; b++) {
       const j = ids[b];
       const hj = h[j];
-      if (ri > 0 && hj - hi > SHADOW_STEP) shadowPair(i, j);
-      else if (R[j] > 0 && hi - hj > SHADOW_STEP) shadowPair(j, i);
-      overlapPair(i, j);
+      if (ri > 0 && hj - hi > SHADOW_STEP) shadowPair(P, sink, i, j);
+      else if (R[j] > 0 && hi - hj > SHADOW_STEP) shadowPair(P, sink, j, i);
+      overlapPair(P, sink, i, j);
     }
   }
 }
