@@ -5,6 +5,7 @@ import { Badge } from '../../../components/ui/misc';
 import { mm } from '../../../lib/format';
 import { findingBox } from '../scene';
 import { useCanvasState, type CanvasStore } from '../store';
+import { scrollWithin } from './scroll';
 
 export interface FindingsTableProps {
   findings: readonly Finding[];
@@ -22,8 +23,7 @@ export function FindingsTable({ findings, store, checkedFindingKeys, onToggleChe
   useEffect(() => {
     const first = rows.find((f) => selected.has(f.key));
     if (!first) return;
-    const el = scrollRef.current?.querySelector(`[data-row-id="${CSS.escape(first.key)}"]`) as HTMLElement | null;
-    el?.scrollIntoView?.({ block: 'nearest' });
+    scrollWithin(scrollRef.current, scrollRef.current?.querySelector(`[data-row-id="${CSS.escape(first.key)}"]`) as HTMLElement | null);
   }, [selected, rows]);
   const checked = checkedFindingKeys ?? new Set<string>();
   const nChecked = findings.filter((f) => checked.has(f.key)).length;

@@ -4,6 +4,7 @@ import { useVirtualizer } from '@tanstack/react-virtual';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { RunResult } from '../../../../shared/pipeline/types';
 import { useCanvasState, type CanvasStore } from '../store';
+import { scrollWithin } from './scroll';
 
 const ROW_H = 30;
 /** Up to this many rows are all in the DOM; more are virtualised. */
@@ -39,7 +40,7 @@ export function PlacementTable({ run, store, height = 320 }: { run: RunResult; s
     const r = rowOf.get(first);
     if (r !== undefined && first !== lastScrolled.current) {
       if (virtual) virt.scrollToIndex(r, { align: 'center' });
-      else scrollRef.current?.querySelector(`[data-row-id="${CSS.escape(`${p.board[first]}:${p.ref[first]}`)}"]`)?.scrollIntoView?.({ block: 'nearest' });
+      else scrollWithin(scrollRef.current, scrollRef.current?.querySelector(`[data-row-id="${CSS.escape(`${p.board[first]}:${p.ref[first]}`)}"]`) ?? null);
       lastScrolled.current = first;
     }
   }, [selected, rowOf, virt, virtual, p]);
