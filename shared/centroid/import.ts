@@ -8,6 +8,7 @@ import type {
   ColumnMapping,
   EngineWarning,
   ImportResult,
+  ImportTable,
   ImportedPlacement,
   Side,
   Units,
@@ -259,11 +260,11 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
   // fixed after the rows, once a unit suffix on the values has told them)
   const knownFactor = opts.units ? MM_PER_UNIT[opts.units] : headerUnit ? MM_PER_UNIT[headerUnit] : NaN;
 
-  const { placements, xs, ys, xu, yu, firstSuffix, anyPlain, firstPlainLine } = readRows(rows, {
+  const { table, xs, ys, xu, yu, firstSuffix, anyPlain, firstPlainLine } = readRows(rows, {
     file, hasQuotes, minCells, iRef, iX, iY, iRot, iSide, iFp, iVal, iPn, iDnp, dnpInverted, decimalComma, knownFactor, infos,
     headerLine, bottomRotation: opts.bottomRotation ?? 'bottom-view',
   });
-  if (placements.length === 0) {
+  if (table.count === 0) {
     throw err('the file is empty: a header row but no data rows', { line: headerLine, code: 'empty' });
   }
 
@@ -313,14 +314,13 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
   const fileFactor = MM_PER_UNIT[units];
   let mixed = false;
   if (knownFactor !== fileFactor) {
-    for (let i = 0; i < placements.length; i++) {
-      const p = placements[i];
-      if (!xu[i]) p.x = xs[i] * fileFactor;
-      if (!yu[i]) p.y = ys[i] * fileFactor;
+    for (let i = 0; i < table.count; i++) {
+      if (!xu[i]) table.x[i] = xs[i] * fileFactor;
+      if (!yu[i]) table.y[i] = ys[i] * fileFactor;
     }
   }
   if (firstSuffix) {
-    for (let i = 0; i < placements.length; i++) {
+    for (let i = 0; i < table.count; i++) {
       if ((xu[i] && CODE_UNIT[xu[i]] !== units) || (yu[i] && CODE_UNIT[yu[i]] !== units)) mixed = true;
     }
   }
@@ -337,15 +337,10 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
     unitsSource,
     dnpSense: iDnp < 0 ? null : dnpInverted ? 'fitted' : 'dnp',
   };
-  return { placements, columns, units, dialect, headers: infos.map((h) => h.raw), warnings };
+  return importResult(table, { columns, units, dialect, headers: infos.map((h) => h.raw), warnings });
 
 }
 
-/** (kept out of the row loop: a closure over a loop variable would cost an allocation per row) */
-function firstLineOf(placements: ImportedPlacement[], ref: string): number {
-  for (const p of placements) if (p.ref === ref) return p.line;
-  return 0;
-}
 
 /** normDeg without the finiteness check (the parser already refused non-finite numbers) */
 function normRotation(a: number): number {
@@ -360,6 +355,66 @@ function fieldLabel(f: Field): string {
 
 
 const EMPTY_ROW: string[] = [];
+
+/** The record view of an import table. */
+export function tableToPlacements(t: ImportTable): ImportedPlacement[] {
+  const out: ImportedPlacement[] = [];
+  for (let i = 0; i < t.count; i++) {
+    out.push({
+      ref: t.ref[i],
+      x: t.x[i],
+      y: t.y[i],
+      rotation: t.rotation[i],
+      side: t.bottom[i] === 1 ? 'bottom' : 'top',
+      footprint: t.footprint[i],
+      value: t.value[i],
+      partNumber: t.partNumber[i],
+      dnp: t.dnp[i] === 1,
+      line: t.line[i],
+    });
+  }
+  return out;
+}
+
+/** The import table of placement records (for results made by hand or read back from JSON). */
+export function placementsToTable(ps: readonly ImportedPlacement[]): ImportTable {
+  const n = ps.length;
+  const t: ImportTable = {
+    count: n, ref: [], x: new Float64Array(n), y: new Float64Array(n), rotation: new Float64Array(n),
+    bottom: new Uint8Array(n), footprint: [], value: [], partNumber: [], dnp: new Uint8Array(n), line: new Int32Array(n),
+  };
+  ps.forEach((p, i) => {
+    t.ref.push(p.ref); t.x[i] = p.x; t.y[i] = p.y; t.rotation[i] = p.rotation; t.bottom[i] = p.side === 'bottom' ? 1 : 0;
+    t.footprint.push(p.footprint); t.value.push(p.value); t.partNumber.push(p.partNumber); t.dnp[i] = p.dnp ? 1 : 0; t.line[i] = p.line;
+  });
+  return t;
+}
+
+/** An ImportResult whose `placements` records are built on first read and whose `table` is
+ * non-enumerable (JSON and spreads carry the records only). Reading or setting `placements`
+ * drops `table` (the records may then be edited; the engine reads them instead). */
+function importResult(table: ImportTable, rest: Omit<ImportResult, 'placements' | 'table'>): ImportResult {
+  const r = { ...rest } as ImportResult;
+  // once the records exist they may be edited, so the table no longer speaks for them
+  const settle = (v: unknown) => {
+    Object.defineProperty(r, 'placements', { value: v, writable: true, enumerable: true, configurable: true });
+    Object.defineProperty(r, 'table', { value: undefined, writable: true, enumerable: false, configurable: true });
+  };
+  Object.defineProperty(r, 'placements', {
+    enumerable: true,
+    configurable: true,
+    get() {
+      const v = tableToPlacements(table);
+      settle(v);
+      return v;
+    },
+    set(v: unknown) {
+      settle(v);
+    },
+  });
+  Object.defineProperty(r, 'table', { value: table, writable: true, enumerable: false, configurable: true });
+  return r;
+}
 
 interface RowContext {
   file: string | undefined;
@@ -390,8 +445,17 @@ function readRows(rows: string[][], c: RowContext) {
   const ys = new Float64Array(n);
   const xu = new Uint8Array(n);
   const yu = new Uint8Array(n);
-  const placements: ImportedPlacement[] = [];
-  const refTable = new RefTable(n, placements);
+  const refs: string[] = [];
+  const fps: string[] = [];
+  const vals: string[] = [];
+  const pns: string[] = [];
+  const X = new Float64Array(n);
+  const Y = new Float64Array(n);
+  const R = new Float64Array(n);
+  const bottom = new Uint8Array(n);
+  const dnps = new Uint8Array(n);
+  const lines = new Int32Array(n);
+  const refTable = new RefTable(n, refs);
   const bottomRotation = c.bottomRotation;
   let firstSuffix: { unit: Units; line: number } | null = null;
   let anyPlain = false;
@@ -420,8 +484,8 @@ function readRows(rows: string[][], c: RowContext) {
     }
     const ref = trimCell(row[iRef]);
     if (ref === '') throw rowErr(c.file, 'empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' });
-    if (refTable.seen(ref, placements.length)) {
-      const prev = firstLineOf(placements, ref);
+    if (refTable.seen(ref, refs.length)) {
+      const prev = lines[refs.indexOf(ref)];
       throw rowErr(c.file, `duplicate reference "${ref}" (first on line ${prev})`, {
         line: rowLine,
         column: infos[iRef].raw,
@@ -447,7 +511,7 @@ function readRows(rows: string[][], c: RowContext) {
     }
     const rot = parseRotationCell(row[iRot], decimalComma);
     if (rot === null) throw badNumberErr(c.file, row[iRot], rowLine, infos[iRot].raw);
-    const idx = placements.length;
+    const idx = refs.length;
     xs[idx] = vx;
     ys[idx] = vy;
     if (ux) xu[idx] = UNIT_CODE[ux];
@@ -488,20 +552,32 @@ function readRows(rows: string[][], c: RowContext) {
       if (bottomRotation === 'negate') rotation = -rot;
       else if (bottomRotation === 'mirror-180') rotation = 180 - rot;
     }
-    placements.push({
-      ref,
-      x: ux ? vx * MM_PER_UNIT[ux] : vx * knownFactor,
-      y: uy ? vy * MM_PER_UNIT[uy] : vy * knownFactor,
-      rotation: normRotation(rotation),
-      side,
-      footprint: iFp >= 0 ? trimCell(row[iFp] ?? '') : '',
-      value: iVal >= 0 ? trimCell(row[iVal] ?? '') : '',
-      partNumber: iPn >= 0 ? trimCell(row[iPn] ?? '') : '',
-      dnp,
-      line: rowLine,
-    });
+    refs.push(ref);
+    X[idx] = ux ? vx * MM_PER_UNIT[ux] : vx * knownFactor;
+    Y[idx] = uy ? vy * MM_PER_UNIT[uy] : vy * knownFactor;
+    R[idx] = normRotation(rotation);
+    if (side === 'bottom') bottom[idx] = 1;
+    fps.push(iFp >= 0 ? trimCell(row[iFp] ?? '') : '');
+    vals.push(iVal >= 0 ? trimCell(row[iVal] ?? '') : '');
+    pns.push(iPn >= 0 ? trimCell(row[iPn] ?? '') : '');
+    if (dnp) dnps[idx] = 1;
+    lines[idx] = rowLine;
   }
-  return { placements, xs, ys, xu, yu, firstSuffix, anyPlain, firstPlainLine };
+  const count = refs.length;
+  const table: ImportTable = {
+    count,
+    ref: refs,
+    x: X.subarray(0, count),
+    y: Y.subarray(0, count),
+    rotation: R.subarray(0, count),
+    bottom: bottom.subarray(0, count),
+    footprint: fps,
+    value: vals,
+    partNumber: pns,
+    dnp: dnps.subarray(0, count),
+    line: lines.subarray(0, count),
+  };
+  return { table, xs, ys, xu, yu, firstSuffix, anyPlain, firstPlainLine };
 }
 
 /**
@@ -514,7 +590,7 @@ class RefTable {
   private readonly mask: number;
   constructor(
     rows: number,
-    private readonly placements: ImportedPlacement[],
+    private readonly refs: string[],
   ) {
     let size = 16;
     while (size < rows * 2) size <<= 1;
@@ -525,14 +601,14 @@ class RefTable {
   seen(ref: string, index: number): boolean {
     let h = 0x811c9dc5;
     for (let i = 0; i < ref.length; i++) h = Math.imul(h ^ ref.charCodeAt(i), 0x01000193);
-    const t = this.table, mask = this.mask, pl = this.placements;
+    const t = this.table, mask = this.mask, refs = this.refs;
     for (let k = h & mask; ; k = (k + 1) & mask) {
       const j = t[k];
       if (j === -1) {
         t[k] = index;
         return false;
       }
-      if (pl[j].ref === ref) return true;
+      if (refs[j] === ref) return true;
     }
   }
 }

@@ -1,5 +1,5 @@
 // One engine run: import → panel → fiducials → library → output-frame placements (one side).
-import { importCentroid } from '../centroid/import';
+import { importCentroid, placementsToTable } from '../centroid/import';
 import { applyAffine, composeAffine, mapRect, type Affine } from '../geometry';
 import { fitTransform, transformToAffine } from '../fiducials';
 import { Assigner, DEFAULT_COURTYARD } from '../library';
@@ -150,9 +150,10 @@ export function runJob(input: RunJobInput): RunResult {
   // ---- assignments per source part ----------------------------------------------------------
   const assigner = new Assigner(library, job.machine ? job.machine.nozzles : null);
   if (!library) warnings.push({ line: null, message: 'no library: no part has a package', code: 'no-library' });
-  const src = imported.placements;
+  const src = imported.table ?? placementsToTable(imported.placements);
+  const sideCode = side === 'bottom' ? 1 : 0;
   const parts: number[] = [];
-  for (let i = 0; i < src.length; i++) if (src[i].side === side && !src[i].dnp) parts.push(i);
+  for (let i = 0; i < src.count; i++) if (src.bottom[i] === sideCode && src.dnp[i] === 0) parts.push(i);
   const m = parts.length;
   const sx = new Float64Array(m), sy = new Float64Array(m), srot = new Float64Array(m);
   const offX = new Float64Array(m), offY = new Float64Array(m), hasOff = new Uint8Array(m);
@@ -162,10 +163,11 @@ export function runJob(input: RunJobInput): RunResult {
   const partIndex = Int32Array.from(parts);
   const unmatched = new Map<string, UnmatchedFootprint>();
   for (let j = 0; j < m; j++) {
-    const p = src[parts[j]];
-    sx[j] = p.x; sy[j] = p.y;
-    const a = assigner.assign(p.footprint);
-    srot[j] = p.rotation + (a.pkg ? a.pkg.rotationOffset : 0);
+    const i = parts[j];
+    sx[j] = src.x[i]; sy[j] = src.y[i];
+    const fp = src.footprint[i];
+    const a = assigner.assign(fp);
+    srot[j] = src.rotation[i] + (a.pkg ? a.pkg.rotationOffset : 0);
     pkgName.push(a.pkg ? a.pkg.name : null);
     nozzle.push(a.nozzle);
     vision.push(a.vision);
@@ -179,10 +181,10 @@ export function runJob(input: RunJobInput): RunResult {
       if (a.holderRadius !== null) holder[j] = a.holderRadius;
     } else {
       court[j] = DEFAULT_COURTYARD;
-      const u = unmatched.get(p.footprint) ?? { footprint: p.footprint, count: 0, placements: 0, refs: [] };
+      const u = unmatched.get(fp) ?? { footprint: fp, count: 0, placements: 0, refs: [] };
       u.count++;
-      u.refs.push(p.ref);
-      unmatched.set(p.footprint, u);
+      u.refs.push(src.ref[i]);
+      unmatched.set(fp, u);
     }
   }
   for (const u of unmatched.values()) u.placements = u.count * placedBoards.length;
@@ -202,8 +204,8 @@ export function runJob(input: RunJobInput): RunResult {
   const B = placedBoards.length;
   const refOne: string[] = [], pnOne: string[] = [], valOne: string[] = [], fpOne: string[] = [], sideOne: Side[] = [];
   for (let j = 0; j < m; j++) {
-    const p = src[parts[j]];
-    refOne.push(p.ref); pnOne.push(p.partNumber); valOne.push(p.value); fpOne.push(p.footprint); sideOne.push(side);
+    const i = parts[j];
+    refOne.push(src.ref[i]); pnOne.push(src.partNumber[i]); valOne.push(src.value[i]); fpOne.push(src.footprint[i]); sideOne.push(side);
   }
   defineLazyColumns(out, {
     ref: () => repeatColumn(refOne, B),
@@ -344,15 +346,18 @@ function stepOut(
 
 /** The placement point: the body centre minus the body offset turned by the rotation. */
 function originColumn(out: PlacementColumns, axis: 'x' | 'y', m: number, hasOff: Uint8Array, offX: Float64Array, offY: Float64Array): Float64Array {
-  const src = axis === 'x' ? out.x : out.y;
-  const res = Float64Array.from(src);
+  const res = (axis === 'x' ? out.x : out.y).slice();
+  const withOffset: number[] = [];
+  for (let j = 0; j < m; j++) if (hasOff[j] === 1) withOffset.push(j);
+  if (withOffset.length === 0) return res;
   const rot = out.rotation;
   const DEG = Math.PI / 180;
-  for (let k = 0; k < res.length; k++) {
-    const j = k % m;
-    if (hasOff[j] !== 1) continue;
-    const cs = Math.cos(rot[k] * DEG), sn = Math.sin(rot[k] * DEG);
-    res[k] -= axis === 'x' ? cs * offX[j] - sn * offY[j] : sn * offX[j] + cs * offY[j];
+  for (let k0 = 0; k0 < res.length; k0 += m) {
+    for (const j of withOffset) {
+      const k = k0 + j;
+      const cs = Math.cos(rot[k] * DEG), sn = Math.sin(rot[k] * DEG);
+      res[k] -= axis === 'x' ? cs * offX[j] - sn * offY[j] : sn * offX[j] + cs * offY[j];
+    }
   }
   return res;
 }

@@ -225,8 +225,33 @@ export interface ImportedPlacement {
   line: number;
 }
 
+/** The imported rows as a struct of arrays: index i describes placements[i]. */
+export interface ImportTable {
+  count: number;
+  ref: string[];
+  /** design frame, mm */
+  x: Float64Array;
+  y: Float64Array;
+  /** deg [0, 360); bottom parts: θb */
+  rotation: Float64Array;
+  /** 1 = bottom, 0 = top */
+  bottom: Uint8Array;
+  footprint: string[];
+  value: string[];
+  partNumber: string[];
+  /** 1 = do not place */
+  dnp: Uint8Array;
+  /** 1-based physical line */
+  line: Int32Array;
+}
+
 export interface ImportResult {
+  /** record view of `table` (on results of importCentroid it is built on first read) */
   placements: ImportedPlacement[];
+  /** the same rows as a struct of arrays; set (non-enumerable: JSON and spreads leave it out) on
+   * results of importCentroid until `placements` is first read or set; absent on hand-made or
+   * deserialised results. The engine uses it when present, else `placements`. */
+  table?: ImportTable;
   /** field → header cell as written */
   columns: ColumnMapping;
   units: Units;

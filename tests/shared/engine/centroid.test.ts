@@ -290,3 +290,22 @@ describe('duplicate detection at scale (property)', () => {
     expect(importCentroid(text, { units: 'mm' }).placements).toHaveLength(20000);
   });
 });
+
+describe('import result: records and table', () => {
+  const text = 'Ref,X,Y,Rot,Side,DNP\nR1,1,2,90,top,\nR2,3,4,10,bottom,x\n';
+  test('the table and the records describe the same rows', () => {
+    const r = importCentroid(text, { units: 'mm' });
+    const t = r.table!;
+    expect(t.count).toBe(2);
+    expect([t.ref, Array.from(t.x), Array.from(t.bottom), Array.from(t.dnp), Array.from(t.line)]).toEqual([['R1', 'R2'], [1, 3], [0, 1], [0, 1], [2, 3]]);
+    expect(r.placements.map((p) => [p.ref, p.x, p.side, p.dnp, p.line])).toEqual([['R1', 1, 'top', false, 2], ['R2', 3, 'bottom', true, 3]]);
+  });
+  test('JSON carries the records, not the table; reading the records drops the table', () => {
+    const r = importCentroid(text, { units: 'mm' });
+    expect(Object.keys(r)).not.toContain('table');
+    const json = JSON.parse(JSON.stringify(r));
+    expect(json.placements).toHaveLength(2);
+    expect(json.table).toBeUndefined();
+    expect(r.table).toBeUndefined(); // JSON.stringify read the records
+  });
+});
