@@ -236,6 +236,13 @@ interface Ctx {
   swap: Uint8Array;
 }
 
+/** The string as one flat piece (a long concatenation is otherwise a tree of small pieces that
+ * the garbage collector keeps moving while the report is built). */
+function flat(str: string): string {
+  str.charCodeAt(0);
+  return str;
+}
+
 function partName(input: VerifyInput, i: number): string {
   return `${input.ref[i]} on board ${input.board[i]}`;
 }
@@ -254,7 +261,7 @@ function singleDraft(
     board: b,
     boards: [b],
     refs,
-    message,
+    message: flat(message),
     geometry,
     depth,
     distance,
@@ -285,7 +292,7 @@ function pairDraft(
     board: board[first],
     boards,
     refs,
-    message,
+    message: flat(message),
     geometry,
     depth,
     distance,
