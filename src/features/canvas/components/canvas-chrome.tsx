@@ -65,7 +65,7 @@ export function CursorReadout({ store, scene }: { store: CanvasStore; scene: Sce
   );
 }
 
-export function HoverCard({ store, scene, pos }: { store: CanvasStore; scene: Scene; pos: { x: number; y: number } }) {
+export function HoverCard({ store, scene, pos, width, height }: { store: CanvasStore; scene: Scene; pos: { x: number; y: number }; width: number; height: number }) {
   const i = useCanvasState(store, (s) => s.hovered);
   if (i < 0 || i >= scene.run.placements.count) return null;
   const p = scene.run.placements;
@@ -82,7 +82,8 @@ export function HoverCard({ store, scene, pos }: { store: CanvasStore; scene: Sc
       role="tooltip"
       data-testid="hover-card"
       className="pointer-events-none absolute z-20 rounded border border-ink-600 bg-ink-900/95 px-2.5 py-1.5 text-xs text-ink-100 shadow-lg"
-      style={{ left: Math.min(pos.x + 14, 10000), top: pos.y + 14 }}
+      // beside the cursor, flipped to the other side near the right and bottom edges
+      style={{ left: pos.x + 270 > width ? Math.max(0, pos.x - 264) : pos.x + 14, top: pos.y + 170 > height ? Math.max(0, pos.y - 164) : pos.y + 14 }}
     >
       <p className="mb-1 font-semibold">
         {p.ref[i]} <span className="font-normal text-ink-400">board {p.board[i]}</span>

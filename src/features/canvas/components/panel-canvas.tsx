@@ -570,7 +570,7 @@ export function PanelCanvas({
       </div>
       <SideBadge run={run} />
       <HelpPopover open={helpOpen} onOpenChange={setHelpOpen} canNote={!!onAddNote} />
-      <HoverCard store={store} scene={scene} pos={hoverXY} />
+      <HoverCard store={store} scene={scene} pos={hoverXY} width={width} height={height} />
       <div className="pointer-events-none absolute bottom-2 left-2 flex items-end gap-3">
         <ScaleBar store={store} />
       </div>

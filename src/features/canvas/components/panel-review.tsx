@@ -101,7 +101,7 @@ export function PanelReview({
           <CommentsList notes={comments} side={side} store={store} />
         </aside>
       </div>
-      <div className="grid gap-3 xl:grid-cols-2">
+      <div className="grid gap-3 2xl:grid-cols-2">
         <section aria-label="Placement table">
           <h2 className="mb-1 text-sm font-semibold text-ink-800">Placements</h2>
           <PlacementTable run={run} store={store} />

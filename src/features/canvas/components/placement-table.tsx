@@ -10,7 +10,8 @@ const ROW_H = 30;
 /** Up to this many rows are all in the DOM; more are virtualised. */
 const VIRTUAL_ABOVE = 300;
 const COLS = ['#', 'Board', 'Ref', 'Package', 'Value', 'X mm', 'Y mm', 'Rot °', 'Nozzle', 'Vision'] as const;
-const WIDTHS = '3.2rem 3.6rem 4.5rem 1fr 1fr 5.6rem 5.6rem 5rem 4.2rem 1fr';
+const WIDTHS = '3rem 3.4rem 4.5rem minmax(7.5rem, 1.2fr) minmax(6.5rem, 1fr) 5.6rem 5.6rem 4.6rem 4.2rem minmax(6.5rem, 1fr)';
+const MIN_WIDTH = '56rem';
 
 export function PlacementTable({ run, store, height = 320 }: { run: RunResult; store: CanvasStore; height?: number }) {
   const p = run.placements;
@@ -65,7 +66,8 @@ export function PlacementTable({ run, store, height = 320 }: { run: RunResult; s
         </span>
         {filtered ? <span className="text-xs text-ink-500">(canvas dims parts outside the filter)</span> : null}
       </div>
-      <div role="table" aria-label="Placements" aria-rowcount={rows.length + 1} className="rounded border border-ink-200 bg-white text-sm">
+      <div className="overflow-x-auto rounded border border-ink-200 bg-white">
+      <div role="table" aria-label="Placements" aria-rowcount={rows.length + 1} className="text-sm" style={{ minWidth: MIN_WIDTH }}>
         <div role="row" className="grid bg-ink-100 text-left text-xs font-medium text-ink-600" style={{ gridTemplateColumns: WIDTHS }}>
           {COLS.map((c) => (
             <div role="columnheader" key={c} className="truncate px-2 py-1.5">
@@ -115,6 +117,7 @@ export function PlacementTable({ run, store, height = 320 }: { run: RunResult; s
             })}
           </div>
         </div>
+      </div>
       </div>
     </div>
   );
