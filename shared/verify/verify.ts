@@ -2,11 +2,15 @@
 // it runs in a worker thread on the server, in the CLI and in the browser.
 //
 // Method: per side, a static spatial index (flatbush) over every body's bounding box grown by its
-// own courtyard; one box query per part (its grown box, widened to its nozzle holder radius) gives
-// the candidates for the pair kinds; an exact separating-axis test on turned rectangles (with the
-// penetration depth, then the common area) decides body and courtyard overlaps; the nozzle shadow
-// is a point-to-rectangle distance. Fiducial clear circles are index queries too. The hot loops
-// run on typed arrays with the fields pulled into locals; queries hand back indices.
+// own courtyard. Each part's query box is its grown box widened to its nozzle holder radius;
+// neighbouring parts (a grid bucket of about GROUP_SIZE) share one index query over the union of
+// their boxes, and each part scans the returned candidates with a box test. For a candidate: the
+// nozzle-shadow distance (point to turned rectangle) when it is taller by more than 0.5 mm, and,
+// once per unordered pair, the exact separating-axis test on the turned rectangles (penetration
+// depth, then the common area by convex clipping) for courtyards and bodies. Fiducial clear
+// circles are index queries too; containment in the board quad and the reach are per part. Hot
+// loops run on typed arrays with fields in locals; the index hands back indices, not objects;
+// findings go to a compact typed-array store (sink.ts) and become objects at the end (report.ts).
 //
 // `verifyBruteForce` runs the same exact tests on every pair (for the bench and the tests).
 
