@@ -58,7 +58,7 @@ export interface CanvasState {
   /** bumped by "fit" requests so the canvas refits */
   fitRequest: number;
   /** a point to centre on (selection from a table) */
-  focus: { x: number; y: number; seq: number } | null;
+  focus: { x: number; y: number; seq: number; size?: number } | null;
 }
 
 /** Part ↔ finding links of the shown run, so that selecting one side selects the other. */
@@ -166,8 +166,10 @@ export class CanvasStore {
     this.set({ fitRequest: this.state.fitRequest + 1 });
   }
 
-  focusOn(x: number, y: number) {
-    this.set({ focus: { x, y, seq: (this.state.focus?.seq ?? 0) + 1 } });
+  /** Centre the view on (x, y); with `size` (mm) zoom so that about that much fills a third of
+   * the view. */
+  focusOn(x: number, y: number, size?: number) {
+    this.set({ focus: { x, y, size, seq: (this.state.focus?.seq ?? 0) + 1 } });
   }
 }
 

@@ -59,7 +59,7 @@ export function FindingsTable({ findings, store, checkedFindingKeys, onToggleChe
                 const pick = (mode: 'replace' | 'add' | 'toggle') => {
                   store.selectFindings([f.key], mode);
                   const b = findingBox(f);
-                  store.focusOn((b.minX + b.maxX) / 2, (b.minY + b.maxY) / 2);
+                  store.focusOn((b.minX + b.maxX) / 2, (b.minY + b.maxY) / 2, Math.max(b.maxX - b.minX, b.maxY - b.minY, 2));
                 };
                 return (
                   <tr

@@ -215,8 +215,9 @@ export function PanelCanvas({
       if (s.focus && s.focus !== was.focus && s.view) {
         const { width: w, height: h } = sizeRef.current;
         const v = s.view;
-        // keep the scale unless the whole panel shows: then zoom to about 8 px/mm
-        const k = Math.max(v.s, 8);
+        // zoom so that the thing shown fills about a third of the view (at most 60 px/mm)
+        const size = s.focus.size;
+        const k = size ? Math.min(60, Math.max(0.5, Math.min(w, h) / (3 * Math.max(size, 1)))) : Math.max(v.s, 8);
         store.set({ view: { s: k, ox: w / 2 - k * s.focus.x, oy: h / 2 + k * s.focus.y } });
       }
       if (s.tool !== was.tool && s.tool !== 'align') {

@@ -90,13 +90,13 @@ export function PlacementTable({ run, store, height = 320 }: { run: RunResult; s
                   tabIndex={0}
                   onClick={(e) => {
                     store.selectParts([i], e.ctrlKey || e.metaKey ? 'toggle' : e.shiftKey ? 'add' : 'replace');
-                    store.focusOn(p.x[i], p.y[i]);
+                    store.focusOn(p.x[i], p.y[i], Math.max(p.bodyLength[i] || 0, p.bodyWidth[i] || 0, 1) * 3);
                   }}
                   onKeyDown={(e) => {
                     if (e.key === 'Enter' || e.key === ' ') {
                       e.preventDefault();
                       store.selectParts([i]);
-                      store.focusOn(p.x[i], p.y[i]);
+                      store.focusOn(p.x[i], p.y[i], Math.max(p.bodyLength[i] || 0, p.bodyWidth[i] || 0, 1) * 3);
                     }
                   }}
                   className={`absolute left-0 right-0 grid cursor-pointer items-center border-t border-ink-100 hover:bg-copper-50 ${sel ? 'bg-copper-100 font-medium' : ''}`}
