@@ -55,7 +55,7 @@ import {
 } from './types';
 
 /** A neighbour must be taller than the part by more than this to shadow its nozzle (mm). The
- * 1e-6 keeps 1.3 − 0.8 (= 0.5000000000000001 in binary) from counting. */
+ * 1e-6 keeps 1.1 − 0.6 (= 0.5000000000000001 in binary) from counting. */
 export const SHADOW_HEIGHT_STEP = 0.5;
 const SHADOW_STEP = SHADOW_HEIGHT_STEP + TOUCH_EPS;
 export const DEFAULT_LIMIT = 10_000;

@@ -285,13 +285,15 @@ describe('nozzle shadow', () => {
     }
   });
 
-  test('1.3 mm next to 0.8 mm is not taller by more than 0.5 (binary 1.3 − 0.8 = 0.5000000000000001)', () => {
-    expect(
-      kindsOf([
-        { ref: 'C1', x: 0, y: 0, length: 1, width: 0.5, height: 0.8, holderRadius: 2, courtyard: 0 },
-        { ref: 'U1', x: 3, y: 0, length: 2, width: 2, height: 1.3, holderRadius: 3, courtyard: 0 },
-      ]),
-    ).toEqual([]);
+  test('1.1 mm next to 0.6 mm is not taller by more than 0.5 (in binary 1.1 − 0.6 = 0.5000000000000001)', () => {
+    // U1's near side at 2.5 − 1 = 1.5 < 2.0: in range, so only the height rule decides
+    const parts = (h: number): PartSpec[] => [
+      { ref: 'C1', x: 0, y: 0, length: 1, width: 0.5, height: 0.6, holderRadius: 2, courtyard: 0 },
+      { ref: 'U1', x: 2.5, y: 0, length: 2, width: 2, height: h, holderRadius: 3, courtyard: 0 },
+    ];
+    expect(1.1 - 0.6 > 0.5).toBe(true);
+    expect(kindsOf(parts(1.1))).toEqual([]);
+    expect(kindsOf(parts(1.11))).toEqual(['nozzle-shadow']);
   });
 
   test('a part without a nozzle (holder 0) is not tested for shadow', () => {
