@@ -10,10 +10,7 @@ let h: BrowserHarness;
 beforeAll(async () => {
   h = await startBrowserHarness();
 });
-afterAll(async () => {
-  await h?.ctx.app.locals.services.checks.close();
-  await h?.close();
-});
+afterAll(() => h?.close());
 
 describe('a program from upload to released run file, in Chromium', () => {
   it('engineer imports, panelizes, aligns, checks and submits; a second engineer releases; the CSV matches its SHA-256', async () => {

@@ -36,6 +36,7 @@ export async function startTestApp(overrides: Partial<Record<string, string>> = 
     mailer,
     env,
     async close() {
+      await app.locals.services.checks.close();
       await mailer.stop();
       await ds.destroy();
     },

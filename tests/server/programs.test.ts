@@ -11,10 +11,7 @@ let ctx: TestContext;
 beforeAll(async () => {
   ctx = await startTestApp();
 });
-afterAll(async () => {
-  await ctx.app.locals.services.checks.close();
-  await ctx.close();
-});
+afterAll(() => ctx.close());
 
 type Agent = Awaited<ReturnType<typeof signedInAgent>>;
 let author: Agent;

@@ -1,6 +1,7 @@
 import { Piscina } from 'piscina';
 import { fileURLToPath } from 'node:url';
 import type { VerifyResult } from '../../../shared/verify/types';
+import { DomainError } from '../../lib/errors';
 import type { EngineInput } from './engine';
 
 const WORKER = fileURLToPath(new URL('../../workers/check.worker.ts', import.meta.url));
@@ -8,6 +9,9 @@ const WORKER = fileURLToPath(new URL('../../workers/check.worker.ts', import.met
 /** Worker threads for checks; TypeScript is loaded there through tsx as in the main thread. */
 export class CheckPool {
   private pool: Piscina | null = null;
+
+  /** A check that takes longer than this is abandoned with a clear error (ms). */
+  constructor(private readonly timeoutMs = 5 * 60_000) {}
 
   private get instance(): Piscina {
     if (!this.pool) {
@@ -17,8 +21,15 @@ export class CheckPool {
     return this.pool;
   }
 
-  run(input: EngineInput): Promise<VerifyResult> {
-    return this.instance.run(input);
+  async run(input: EngineInput): Promise<VerifyResult> {
+    try {
+      return await this.instance.run(input, { signal: AbortSignal.timeout(this.timeoutMs) });
+    } catch (err) {
+      if ((err as Error).name === 'AbortError' || (err as Error).name === 'TimeoutError') {
+        throw new DomainError(503, 'Check took too long', `The check did not finish within ${Math.round(this.timeoutMs / 1000)} s. Try again; if it keeps happening, tell an admin.`);
+      }
+      throw err;
+    }
   }
 
   async close() {
