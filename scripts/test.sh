@@ -31,23 +31,29 @@ log "building the client for the browser tests"
 npx vite build --logLevel error >&2 || { failed=$((failed + 1)); log "FAILED: client build"; }
 
 mkdir -p .data
-results=.data/vitest-results.json
-rm -f "$results"
-log "vitest (shared, client, server, e2e)"
-npx vitest run --reporter=default --reporter=json --outputFile.json="$results"
-vitest_rc=$?
-if [ -f "$results" ]; then
-  read -r vp vf vs < <(node -e '
-    const r = JSON.parse(require("fs").readFileSync(process.argv[1], "utf8"));
-    // Files that failed to load count as failures too.
-    const fileErrors = (r.testResults || []).filter(f => f.status === "failed" && (f.assertionResults || []).length === 0).length;
-    console.log(r.numPassedTests, r.numFailedTests + fileErrors, (r.numPendingTests || 0) + (r.numTodoTests || 0));
-  ' "$results")
-  passed=$((passed + vp)); failed=$((failed + vf)); skipped=$((skipped + vs))
-  if [ "$vitest_rc" != 0 ] && [ "$vf" = 0 ]; then failed=$((failed + 1)); log "FAILED: vitest exited $vitest_rc"; fi
-else
-  failed=$((failed + 1)); log "FAILED: vitest wrote no results (exit $vitest_rc)"
-fi
+# Two vitest runs: unit and integration first, then the browser tests alone, so that Chromium
+# does not compete with the server tests for the machine's cores.
+run_vitest() { # label, results file, vitest args...
+  local label="$1" results="$2"; shift 2
+  rm -f "$results"
+  log "vitest: $label"
+  npx vitest run --reporter=default --reporter=json --outputFile.json="$results" "$@"
+  local rc=$?
+  if [ -f "$results" ]; then
+    read -r vp vf vs < <(node -e '
+      const r = JSON.parse(require("fs").readFileSync(process.argv[1], "utf8"));
+      // Files that failed to load count as failures too.
+      const fileErrors = (r.testResults || []).filter(f => f.status === "failed" && (f.assertionResults || []).length === 0).length;
+      console.log(r.numPassedTests, r.numFailedTests + fileErrors, (r.numPendingTests || 0) + (r.numTodoTests || 0));
+    ' "$results")
+    passed=$((passed + vp)); failed=$((failed + vf)); skipped=$((skipped + vs))
+    if [ "$rc" != 0 ] && [ "$vf" = 0 ]; then failed=$((failed + 1)); log "FAILED: vitest ($label) exited $rc"; fi
+  else
+    failed=$((failed + 1)); log "FAILED: vitest ($label) wrote no results (exit $rc)"
+  fi
+}
+run_vitest "shared, client, server" .data/vitest-unit.json --project shared --project client --project server
+run_vitest "browser (e2e)" .data/vitest-e2e.json --project e2e
 
 if [ -z "${DATABASE_URL_TEST_BASE:-}" ]; then
   export DATABASE_URL="$(bash scripts/db.sh url "${PW_TEST_DB_NAME:-placewright_test}")"
