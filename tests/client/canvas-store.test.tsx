@@ -106,3 +106,14 @@ describe('canvas store: linked selection on the faulty sample', () => {
     expect(scene.bounds.maxX).toBe(84);
   });
 });
+
+describe('review summary rule', () => {
+  it('approval needs every error waived or gone; warnings do not count', async () => {
+    const { unresolvedErrors } = await import('../../src/features/canvas');
+    const { findings } = faultyRuns();
+    const errors = findings.filter((f) => f.severity === 'error');
+    expect(unresolvedErrors(findings)).toHaveLength(errors.length);
+    expect(unresolvedErrors(findings, new Set(errors.map((f) => f.key)))).toEqual([]);
+    expect(unresolvedErrors(findings.filter((f) => f.severity === 'warning'))).toEqual([]);
+  });
+});

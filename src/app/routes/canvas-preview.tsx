@@ -10,7 +10,7 @@ import { verifyInputFromRuns } from '../../../shared/verify/from-job';
 import { verify } from '../../../shared/verify/verify';
 import { SelectField } from '../../components/ui/field';
 import { ErrorPanel, PageHeader } from '../../components/ui/misc';
-import { PanelReview, type CanvasNote, type NewNote, type UnderlayState } from '../../features/canvas';
+import { PanelReview, ReviewSummary, type CanvasNote, type NewNote, type UnderlayState } from '../../features/canvas';
 import libraryText from '../../../samples/library.json?raw';
 import weatherJob from '../../../samples/weather-station/job.json?raw';
 import weatherCsv from '../../../samples/weather-station/weather-ctl.csv?raw';
@@ -90,6 +90,10 @@ export default function CanvasPreviewRoute() {
             underlays={underlays}
             onUnderlayChange={(side, u) => setUnderlays((prev) => ({ ...prev, [side]: u }))}
           />
+          <div className="mt-4 max-w-3xl">
+            <h2 className="mb-1 text-sm font-semibold text-ink-800">Review (as the release stage shows it)</h2>
+            <ReviewSummary findings={data.findings} checkedFindingKeys={checked} comments={comments} />
+          </div>
         </>
       )}
     </div>

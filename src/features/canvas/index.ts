@@ -7,3 +7,4 @@ export { LayerToggles } from './components/layer-toggles';
 export { CanvasStore, useCanvasState, LAYERS, DEFAULT_LAYERS, type LayerId, type CanvasState, type Tool } from './store';
 export { buildScene, dimMask, type Scene } from './scene';
 export type { CanvasNote, NewNote, UnderlayState } from './types';
+export { ReviewSummary, unresolvedErrors, type ReviewSummaryProps } from './components/review-summary';
