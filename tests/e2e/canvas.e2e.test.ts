@@ -130,6 +130,23 @@ describe('canvas overlay in Chromium', () => {
     await page.screenshot({ path: `${SCREENSHOT_DIR}/canvas-faulty-measure.png` });
   });
 
+  it('a comment is pinned at panel coordinates and listed for the review', async () => {
+    await openPreview('led-strip');
+    await page.getByRole('button', { name: 'Comment', exact: true }).click();
+    const box = (await page.getByTestId('panel-canvas').boundingBox())!;
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    const form = page.getByRole('form', { name: 'New comment' });
+    await form.getByRole('textbox').fill('Boards 2 and 4 turned: confirm against the stencil');
+    await form.getByRole('button', { name: 'Pin comment' }).click();
+    await page.getByRole('region', { name: 'Comments' }).getByText(/Boards 2 and 4 turned/).waitFor();
+    await page.getByRole('region', { name: 'Review summary' }).getByText(/Boards 2 and 4 turned/).waitFor();
+    await page.getByTestId('panel-canvas').focus();
+    await page.keyboard.press('?');
+    await page.getByRole('dialog', { name: 'Keyboard shortcuts' }).waitFor();
+    await page.getByTestId('panel-canvas').screenshot({ path: `${SCREENSHOT_DIR}/canvas-led-strip-comment-help.png` });
+    await page.keyboard.press('Escape');
+  });
+
   it('an underlay image aligns with two point pairs', async () => {
     await openPreview('faulty');
     // an 800 × 400 px "photo" of the 80 × 40 mm panel at 10 px/mm, upright (pixel v runs down):
