@@ -383,10 +383,11 @@ export function placementsToTable(ps: readonly ImportedPlacement[]): ImportTable
     count: n, ref: [], x: new Float64Array(n), y: new Float64Array(n), rotation: new Float64Array(n),
     bottom: new Uint8Array(n), footprint: [], value: [], partNumber: [], dnp: new Uint8Array(n), line: new Int32Array(n),
   };
-  ps.forEach((p, i) => {
+  for (let i = 0; i < n; i++) {
+    const p = ps[i];
     t.ref.push(p.ref); t.x[i] = p.x; t.y[i] = p.y; t.rotation[i] = p.rotation; t.bottom[i] = p.side === 'bottom' ? 1 : 0;
     t.footprint.push(p.footprint); t.value.push(p.value); t.partNumber.push(p.partNumber); t.dnp[i] = p.dnp ? 1 : 0; t.line[i] = p.line;
-  });
+  }
   return t;
 }
 

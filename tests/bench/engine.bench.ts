@@ -36,7 +36,8 @@ function centroidCsv(rows: number, seed: number): string {
 /** Wall and CPU time of one measurement, ms: the best (minimum) of the runs of each. On a shared
  * machine the minimum is the least disturbed measurement, and CPU time (process.cpuUsage: user +
  * system of all this process's threads, GC helpers included) does not count time spent waiting
- * for a core that another process holds. The same rule for each subject and its floor. */
+ * for a core that another process holds. The same rule for each subject and its floor; garbage
+ * collection that a run triggers is part of its time. */
 interface Timing {
   wall: number;
   cpu: number;
@@ -44,13 +45,19 @@ interface Timing {
 
 let gc: () => void = () => {};
 
+/** Full GC, a pause for the concurrent sweeper to release array buffers, and another GC. */
+async function settle(): Promise<void> {
+  gc();
+  await new Promise((r) => setTimeout(r, 50));
+  gc();
+}
+
 function cpuNow(): number {
   const u = process.cpuUsage();
   return (u.user + u.system) / 1000;
 }
 
 function once(fn: () => unknown): Timing {
-  gc();
   const c0 = cpuNow();
   const t0 = performance.now();
   fn();
@@ -60,7 +67,6 @@ function once(fn: () => unknown): Timing {
 }
 
 async function onceAsync(fn: () => Promise<unknown>): Promise<Timing> {
-  gc();
   const c0 = cpuNow();
   const t0 = performance.now();
   await fn();
@@ -72,14 +78,20 @@ async function onceAsync(fn: () => Promise<unknown>): Promise<Timing> {
 const bestOf = (ts: Timing[]): Timing => ({ wall: Math.min(...ts.map((t) => t.wall)), cpu: Math.min(...ts.map((t) => t.cpu)) });
 
 /** A subject and its floor, `runs` calls each after a warm-up, interleaved (so both see the same
- * load on a shared machine), a full GC before each call. */
+ * load on a shared machine). One full GC before the series, none between calls: a forced full GC
+ * invalidates freshly optimised code that holds weak references (V8 "weak objects" deopt), which
+ * would measure the JIT's recompilation instead of the engine. */
 async function timePair(
   subject: () => unknown,
   floor: () => unknown,
   runs: number,
 ): Promise<[Timing, Timing]> {
-  await subject();
-  await floor();
+  // warm-up: a few calls each, so that the engine's optimising compiler has settled
+  for (let i = 0; i < 5; i++) {
+    await subject();
+    await floor();
+  }
+  gc();
   const a: Timing[] = [];
   const b: Timing[] = [];
   for (let i = 0; i < runs; i++) {
@@ -90,7 +102,8 @@ async function timePair(
 }
 
 function time(fn: () => unknown, runs: number): Timing {
-  fn();
+  for (let i = 0; i < 5; i++) fn();
+  gc();
   const ts: Timing[] = [];
   for (let i = 0; i < runs; i++) ts.push(once(fn));
   return bestOf(ts);
@@ -153,11 +166,10 @@ export async function run(): Promise<Record<string, unknown>> {
 
   // floor: the bare step-out + transform over typed arrays, no strings, no lookups
   const u = new Float64Array(2000), v = new Float64Array(2000), th = new Float64Array(2000);
-  for (let j = 0; j < 2000; j++) {
-    u[j] = imported.placements[j].x;
-    v[j] = imported.placements[j].y;
-    th[j] = imported.placements[j].rotation;
-  }
+  const table = imported.table!; // (reading imported.placements would hand runJob records instead)
+  u.set(table.x);
+  v.set(table.y);
+  th.set(table.rotation);
   // the floor returns new arrays, as any step-out that hands back its results must
   const floor = () => {
     const X = new Float64Array(n), Y = new Float64Array(n), R = new Float64Array(n);
@@ -189,14 +201,14 @@ export async function run(): Promise<Record<string, unknown>> {
   log(`panelize+align, every column read ${fmt(panelizeAllMs)}`);
 
   // retained memory of one 100,000-placement result (JS heap + typed-array backing stores)
-  gc();
+  await settle();
   const m0 = process.memoryUsage();
   let held: unknown = panelize();
-  gc();
+  await settle();
   const m1 = process.memoryUsage();
   const heapMB = (m1.heapUsed - m0.heapUsed + (m1.arrayBuffers - m0.arrayBuffers)) / (1024 * 1024);
   readAll(held as ReturnType<typeof panelize>);
-  gc();
+  await settle();
   const m2 = process.memoryUsage();
   const heapAllMB = (m2.heapUsed - m0.heapUsed + (m2.arrayBuffers - m0.arrayBuffers)) / (1024 * 1024);
   held = null;
@@ -242,6 +254,6 @@ export async function run(): Promise<Record<string, unknown>> {
     writeCpuMs: r2(writeMs.cpu),
     writeFloorMs: r2(writeFloorMs.wall),
     writeFloorCpuMs: r2(writeFloorMs.cpu),
-    engineTiming: 'subject and floor interleaved, best of 9-31 runs each after a warm-up, full GC before each run; ratios by process CPU time, *Wall by wall time',
+    engineTiming: 'subject and floor interleaved, best of 9-31 runs each after 5 warm-up calls and one full GC (none between runs); ratios by process CPU time, *Wall by wall time',
   };
 }
