@@ -13,7 +13,8 @@ export interface Scene {
   run: RunResult;
   quads: Float64Array;
   boxes: Float64Array;
-  courtyards: Float64Array;
+  /** computed on first use (the courtyard layer starts hidden) */
+  readonly courtyards: Float64Array;
   marks: Float64Array;
   index: BodyIndex;
   /** panel outline, boards and bodies: what "fit" shows */
@@ -44,7 +45,6 @@ export function buildScene(run: RunResult, allFindings: readonly Finding[]): Sce
   const p = run.placements;
   const quads = bodyQuads(p);
   const boxes = quadBoxes(quads);
-  const courtyards = bodyQuads(p, true);
   const marks = pinOneMarks(p);
   const index = buildBodyIndex(quads, boxes);
   const byRef = new Map<string, number>();
@@ -87,8 +87,12 @@ export function buildScene(run: RunResult, allFindings: readonly Finding[]): Sce
     toMachine = ID;
     toPanel = run.transform ? invertAffine(transformToAffine(run.transform)) : null;
   }
+  let courtyards: Float64Array | null = null;
   return {
-    run, quads, boxes, courtyards, marks, index, bounds, bodyBounds, byRef, findings,
+    run, quads, boxes, marks, index, bounds, bodyBounds, byRef, findings,
+    get courtyards() {
+      return (courtyards ??= bodyQuads(p, true));
+    },
     findingBoxes: findings.map(findingBox),
     links: { partFindings, findingParts },
     toPanel, toMachine,
