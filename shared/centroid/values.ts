@@ -41,12 +41,44 @@ export function scanNumberCell(s: string, decimalComma: boolean): number {
   return value;
 }
 
-/** Fast path only: a plain decimal number (no unit, no comma), else NaN. */
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+
+/**
+ * Fast path only: a plain decimal number (`-12.345`, no unit, no comma, no exponent), else NaN.
+ * With at most 15 significant digits the mantissa m is an exact integer and 10^k is exact, so
+ * m / 10^k is the correctly rounded value — the same double as `+s` — without the string-to-number
+ * runtime call. Anything else falls back to `+s` with the same checks as before.
+ */
 export function plainNumber(s: string): number {
+  const n = s.length;
+  let i = 0;
+  let neg = false;
+  let c = s.charCodeAt(0);
+  if (c === 45) {
+    neg = true;
+    i = 1;
+  } else if (c === 43) i = 1;
+  let m = 0;
+  let digits = 0;
+  let frac = -1;
+  for (; i < n; i++) {
+    c = s.charCodeAt(i);
+    if (c >= 48 && c <= 57) {
+      m = m * 10 + (c - 48);
+      digits++;
+    } else if (c === 46 && frac < 0) frac = i;
+    else break;
+  }
+  if (i === n && digits > 0 && digits <= 15) {
+    const k = frac < 0 ? 0 : n - 1 - frac;
+    const v = k === 0 ? m : m / POW10[k];
+    return neg ? -v : v;
+  }
+  // general case (exponent, leading blanks, many digits): the engine's own conversion
   const c0 = s.charCodeAt(0);
   if ((c0 >= 48 && c0 <= 57) || c0 === 45) {
-    const n = +s;
-    if (n - n === 0 && !(c0 === 48 && isRadixLetter(s.charCodeAt(1)))) return n;
+    const v = +s;
+    if (v - v === 0 && !(c0 === 48 && isRadixLetter(s.charCodeAt(1)))) return v;
   }
   return NaN;
 }
@@ -60,11 +92,8 @@ export function parseNumberCell(s: string, decimalComma: boolean): ParsedNumber 
 const ROT = /^\s*([-+]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][-+]?\d+)?)\s*(°|deg|degrees)?\s*$/i;
 
 export function parseRotationCell(s: string, decimalComma: boolean): number | null {
-  const c0 = s.charCodeAt(0);
-  if ((c0 >= 48 && c0 <= 57) || c0 === 45) {
-    const n = +s;
-    if (n - n === 0 && !(c0 === 48 && isRadixLetter(s.charCodeAt(1)))) return n;
-  }
+  const fast = plainNumber(s);
+  if (fast === fast) return fast;
   const m = ROT.exec(s);
   if (!m) return null;
   let num = m[1];
@@ -86,13 +115,20 @@ const SIDES = new Map<string, Side>([
 
 const sideCache = new Map<string, Side | null>();
 
+let lastSideCell = '';
+let lastSide: Side | null = null;
+
 /** top/bottom, t/b, top/bot, front/back, f/b, component/solder (any case; "Top Layer" too). */
 export function parseSideCell(s: string): Side | null {
+  // most files repeat one or two spellings: compare with the last cell before hashing
+  if (s === lastSideCell) return lastSide;
   let r = sideCache.get(s);
   if (r === undefined) {
     r = SIDES.get(s.toLowerCase().replace(/[^a-z]/g, '')) ?? null;
     if (sideCache.size < 1000) sideCache.set(s, r);
   }
+  lastSideCell = s;
+  lastSide = r;
   return r;
 }
 

@@ -309,3 +309,22 @@ describe('import result: records and table', () => {
     expect(r.table).toBeUndefined(); // JSON.stringify read the records
   });
 });
+
+describe('fast decimal parsing gives the same double as the engine', () => {
+  test('plainNumber(s) === +s for decimal strings (property)', async () => {
+    const { plainNumber } = await import('../../../shared/centroid/values');
+    fc.assert(
+      fc.property(fc.double({ min: -1e7, max: 1e7, noNaN: true }), fc.integer({ min: 0, max: 9 }), (v, d) => {
+        const s = v.toFixed(d);
+        expect(Object.is(plainNumber(s), +s) || (plainNumber(s) === 0 && +s === 0)).toBe(true);
+      }),
+      { numRuns: 2000 },
+    );
+    for (const s of ['1e3', '-0.5', '+2', '.5', '5.', '007', '123456789012345678', '1.5.2', '-', '', '1,5', '12mm']) {
+      // '+2' and '.5' are numbers to the importer as well (the full parser accepts them too)
+      const want = s === '1.5.2' || s === '-' || s === '' || s === '1,5' || s === '12mm' ? NaN : +s;
+      if (Number.isNaN(want)) expect(plainNumber(s)).toBeNaN();
+      else expect(plainNumber(s)).toBe(want);
+    }
+  });
+});
