@@ -2,7 +2,7 @@
 // outline only, `?mode=floor`), then scripts a pan and a zoom and reports the figures on
 // `window.__bench` for tests/bench/canvas.bench.ts to read.
 import { createRoot } from 'react-dom/client';
-import { CanvasStore, DEFAULT_LAYERS, PanelCanvas, type DrawStats, type LayerId } from '../../../src/features/canvas';
+import { CanvasStore, DEFAULT_LAYERS, PanelCanvas, PanelReview, type DrawStats, type LayerId } from '../../../src/features/canvas';
 import { verifyInputFromRuns } from '../../../shared/verify/from-job';
 import { verify } from '../../../shared/verify/verify';
 import { outlineOnly, syntheticRun } from './panel';
@@ -75,4 +75,11 @@ async function script() {
 
 window.addEventListener('error', (e) => (bench.error = String(e.message)));
 t0 = performance.now();
-createRoot(document.getElementById('root')!).render(<PanelCanvas store={store} run={run} findings={findings} height={760} onDraw={onDraw} />);
+// `?ui=review` mounts the whole review (canvas, tables, controls) instead of the canvas alone
+createRoot(document.getElementById('root')!).render(
+  params.get('ui') === 'review' ? (
+    <PanelReview runs={{ top: run }} findings={findings} canvasHeight={760} onDraw={onDraw} />
+  ) : (
+    <PanelCanvas store={store} run={run} findings={findings} height={760} onDraw={onDraw} />
+  ),
+);

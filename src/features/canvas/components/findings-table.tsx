@@ -7,6 +7,8 @@ import { findingBox } from '../scene';
 import { useCanvasState, type CanvasStore } from '../store';
 import { scrollWithin } from './scroll';
 
+const ROW_CAP = 400;
+
 export interface FindingsTableProps {
   findings: readonly Finding[];
   store: CanvasStore;
@@ -18,7 +20,10 @@ export interface FindingsTableProps {
 export function FindingsTable({ findings, store, checkedFindingKeys, onToggleChecked, height = 260 }: FindingsTableProps) {
   const selected = useCanvasState(store, (s) => s.selectedFindings);
   const kinds = useCanvasState(store, (s) => s.filters.kinds);
-  const rows = useMemo(() => (kinds.length ? findings.filter((f) => kinds.includes(f.kind)) : findings), [findings, kinds]);
+  const all = useMemo(() => (kinds.length ? findings.filter((f) => kinds.includes(f.kind)) : findings), [findings, kinds]);
+  // a pathological panel can have thousands of findings: the first ROW_CAP rows are listed, plus
+  // any selected one further down, so that a selection on the canvas always shows its row
+  const rows = useMemo(() => (all.length <= ROW_CAP ? all : [...all.slice(0, ROW_CAP), ...all.slice(ROW_CAP).filter((f) => selected.has(f.key))]), [all, selected]);
   const scrollRef = useRef<HTMLDivElement>(null);
   useEffect(() => {
     const first = rows.find((f) => selected.has(f.key));
@@ -31,7 +36,8 @@ export function FindingsTable({ findings, store, checkedFindingKeys, onToggleChe
     <div className="flex flex-col gap-1.5">
       <p className="num text-xs text-ink-500">
         {findings.length} findings on this side · {nChecked} checked
-        {kinds.length ? ` · showing ${rows.length}` : ''}
+        {kinds.length ? ` · ${all.length} of this kind` : ''}
+        {all.length > ROW_CAP ? ` · listing the first ${ROW_CAP} (narrow by kind)` : ''}
       </p>
       <div ref={scrollRef} className="overflow-auto rounded border border-ink-200 bg-white" style={{ maxHeight: height }}>
         <table aria-label="Findings" className="w-full border-collapse text-sm">
