@@ -446,10 +446,12 @@ function readRows(rows: string[][], c: RowContext) {
   const ys = new Float64Array(n);
   const xu = new Uint8Array(n);
   const yu = new Uint8Array(n);
-  const refs: string[] = [];
-  const fps: string[] = [];
-  const vals: string[] = [];
-  const pns: string[] = [];
+  // sized once (no growth garbage), trimmed to the row count at the end
+  const refs: string[] = new Array<string>(n);
+  const fps: string[] = new Array<string>(n);
+  const vals: string[] = new Array<string>(n);
+  const pns: string[] = new Array<string>(n);
+  let count = 0;
   const X = new Float64Array(n);
   const Y = new Float64Array(n);
   const R = new Float64Array(n);
@@ -485,7 +487,7 @@ function readRows(rows: string[][], c: RowContext) {
     }
     const ref = trimCell(row[iRef]);
     if (ref === '') throw rowErr(c.file, 'empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' });
-    if (refTable.seen(ref, refs.length)) {
+    if (refTable.seen(ref, count)) {
       const prev = lines[refs.indexOf(ref)];
       throw rowErr(c.file, `duplicate reference "${ref}" (first on line ${prev})`, {
         line: rowLine,
@@ -512,7 +514,7 @@ function readRows(rows: string[][], c: RowContext) {
     }
     const rot = parseRotationCell(row[iRot], decimalComma);
     if (rot === null) throw badNumberErr(c.file, row[iRot], rowLine, infos[iRot].raw);
-    const idx = refs.length;
+    const idx = count;
     xs[idx] = vx;
     ys[idx] = vy;
     if (ux) xu[idx] = UNIT_CODE[ux];
@@ -553,18 +555,22 @@ function readRows(rows: string[][], c: RowContext) {
       if (bottomRotation === 'negate') rotation = -rot;
       else if (bottomRotation === 'mirror-180') rotation = 180 - rot;
     }
-    refs.push(ref);
+    refs[idx] = ref;
     X[idx] = ux ? vx * MM_PER_UNIT[ux] : vx * knownFactor;
     Y[idx] = uy ? vy * MM_PER_UNIT[uy] : vy * knownFactor;
     R[idx] = normRotation(rotation);
     if (side === 'bottom') bottom[idx] = 1;
-    fps.push(iFp >= 0 ? trimCell(row[iFp] ?? '') : '');
-    vals.push(iVal >= 0 ? trimCell(row[iVal] ?? '') : '');
-    pns.push(iPn >= 0 ? trimCell(row[iPn] ?? '') : '');
+    fps[idx] = iFp >= 0 ? trimCell(row[iFp] ?? '') : '';
+    vals[idx] = iVal >= 0 ? trimCell(row[iVal] ?? '') : '';
+    pns[idx] = iPn >= 0 ? trimCell(row[iPn] ?? '') : '';
     if (dnp) dnps[idx] = 1;
     lines[idx] = rowLine;
+    count++;
   }
-  const count = refs.length;
+  refs.length = count;
+  fps.length = count;
+  vals.length = count;
+  pns.length = count;
   const table: ImportTable = {
     count,
     ref: refs,

@@ -121,7 +121,7 @@ export async function run(): Promise<Record<string, unknown>> {
 
   // ---- import of a 50,000-row CSV vs papaparse alone on the same text --------------------------
   const text = centroidCsv(50_000, 1);
-  const [importMs, papaMs] = await timePair(() => importCentroid(text, { units: 'mm' }), () => Papa.parse(text), 11);
+  const [importMs, papaMs] = await timePair(() => importCentroid(text, { units: 'mm' }), () => Papa.parse(text), 21);
   log(`import ${fmt(importMs)}, papaparse ${fmt(papaMs)}`);
 
   // ---- panelize + align of 100,000 placements vs a bare typed-array affine loop ---------------
