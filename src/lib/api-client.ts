@@ -57,7 +57,11 @@ export async function uploadForm<S extends z.ZodType>(path: string, form: FormDa
         /* not JSON */
       }
       if (xhr.status >= 200 && xhr.status < 300) {
-        resolve(opts.schema ? opts.schema.parse(body) : (body as z.infer<S>));
+        try {
+          resolve(opts.schema ? parseAnswer(opts.schema, body, path) : (body as z.infer<S>));
+        } catch (e) {
+          reject(e);
+        }
       } else {
         const p = problemSchema.safeParse(body);
         reject(new ApiError(p.success ? p.data : { status: xhr.status, title: 'Error', detail: `The server answered ${xhr.status}.`, errors: [] }));
@@ -118,5 +122,18 @@ export async function api<S extends z.ZodType = z.ZodUnknown>(path: string, opts
   if (!res.ok) throw new ApiError(await toProblem(res));
   if (res.status === 204) return undefined as z.infer<S>;
   const data = await res.json();
-  return opts.schema ? opts.schema.parse(data) : data;
+  return opts.schema ? parseAnswer(opts.schema, data, path) : data;
+}
+
+/** A response that does not match its schema is a bug or a stale page, not the user's fault. */
+function parseAnswer<S extends z.ZodType>(schema: S, data: unknown, path: string): z.infer<S> {
+  const parsed = schema.safeParse(data);
+  if (parsed.success) return parsed.data;
+  console.error(`Unexpected answer from /api${path}`, parsed.error.issues);
+  throw new ApiError({
+    status: 0,
+    title: 'Unexpected answer',
+    detail: 'The server answered in a form this page does not understand. Reload the page (Placewright may have been updated); if it persists, tell an admin.',
+    errors: [],
+  });
 }
