@@ -188,6 +188,31 @@ describe('programs: upload → release → download', () => {
 });
 
 describe('programs: bad uploads change nothing', () => {
+  it('the preview lists every bad row with its line and column, and still shows the good rows', async () => {
+    const revId = await createProgram();
+    const csv = [
+      '# exported by hand', // line 1: a preamble line
+      'Ref,X(mm),Y(mm),Rot,Side,Footprint', // line 2: header
+      'R1,1,1,0,top,R0603',
+      'R2,abc,1,0,top,R0603', // line 4: not a number
+      'R3,3,3,0,sideways,R0603', // line 5: no such side
+      'R1,4,4,0,top,R0603', // line 6: duplicate of line 3
+      'R5,5,5,0,bottom,R0603',
+    ].join('\r\n');
+    const res = await upload(author, revId, Buffer.from(csv), 'bad-rows.csv', {}, 'centroid/preview');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.rowErrors.map((e: { line: number; column: string | null }) => [e.line, e.column])).toEqual([
+      [4, 'X(mm)'],
+      [5, 'Side'],
+      [6, 'Ref'],
+    ]);
+    expect(res.body.first.map((p: { ref: string }) => p.ref)).toEqual(['R1', 'R5']);
+    const commit = await upload(author, revId, Buffer.from(csv), 'bad-rows.csv');
+    expect(commit.status).toBe(400);
+    expect(commit.body.detail).toMatch(/line 4/);
+    expect((await detail(author, revId)).imported).toBeNull();
+  });
+
   it.each([
     ['a duplicate reference', Buffer.from('Ref,X(mm),Y(mm),Rot,Side,Footprint\nR1,1,1,0,top,R0603\nR1,2,2,0,top,R0603\n'), 'dup.csv', 400, /line 3/],
     ['a non-numeric coordinate', Buffer.from('Ref,X(mm),Y(mm),Rot,Side,Footprint\nR1,abc,1,0,top,R0603\n'), 'bad.csv', 400, /line 2/],

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
+import { EngineInputError } from '../../../shared/pipeline/errors';
 import type { ImportResult, Side } from '../../../shared/pipeline/types';
 import { runResultToJson, type RunResultJson } from '../../../shared/pipeline/serialize';
 import { writePlacementListCsv, writePlacementListJson } from '../../../shared/placement-list';
@@ -33,6 +34,29 @@ export interface LibrarySource {
 }
 
 export const UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
+/** The import preview lists at most this many row errors. */
+export const PREVIEW_ERROR_LIMIT = 200;
+
+/** Replaces physical line `line` (1-based) with an empty one, keeping every other line's number. */
+function blankLine(text: string, line: number): string {
+  let start = 0;
+  for (let n = 1; n < line; n++) {
+    const nl = text.indexOf('\n', start);
+    if (nl < 0) return text;
+    start = nl + 1;
+  }
+  let end = text.indexOf('\n', start);
+  if (end < 0) end = text.length;
+  if (text[end - 1] === '\r') end -= 1;
+  return text.slice(0, start) + text.slice(end);
+}
+
+const FILE_WIDE_CODES = new Set(['no-header', 'missing-column', 'empty', 'duplicate-column', 'unit-conflict', 'units-mixed', 'bad-map']);
+
+/** An error on the header row, or one that repeats on the same line, cannot be stepped past. */
+function isHeaderOrFileError(err: EngineInputError, seen: { line: number }[]): boolean {
+  return seen.some((e) => e.line === err.line) || FILE_WIDE_CODES.has(err.code ?? '');
+}
 
 const EDITABLE: RevisionState[] = ['draft'];
 
@@ -266,11 +290,35 @@ export class ProgramService {
     });
   }
 
-  /** Reads a file without saving: what the import would give (dialect, mapping, first rows, errors). */
+  /**
+   * Reads a file without saving: what the import would give (dialect, mapping, first rows) and
+   * every row error with its line. The engine stops at the first bad row; to list them all, the
+   * preview blanks that line (blank lines are skipped and keep the numbering) and reads again.
+   * A file-wide problem (no units, a missing column, no rows) ends the list.
+   */
   previewImport(bytes: Buffer, fileName: string, importOptions: RevisionSettings['import']) {
-    const text = decodeText(bytes, fileName);
-    const imported = importFile(text, { import: importOptions }, fileName);
+    let text = decodeText(bytes, fileName);
+    const rowErrors: { line: number; column: string | null; message: string }[] = [];
+    let imported: ImportResult | null = null;
+    while (!imported) {
+      try {
+        imported = importFile(text, { import: importOptions }, fileName);
+      } catch (err) {
+        if (!(err instanceof EngineInputError) || err.line === undefined || rowErrors.length >= PREVIEW_ERROR_LIMIT || isHeaderOrFileError(err, rowErrors)) {
+          if (rowErrors.length === 0) throw err;
+          if (err instanceof EngineInputError && rowErrors.length < PREVIEW_ERROR_LIMIT) rowErrors.push({ line: err.line ?? 0, column: err.column ?? null, message: err.detail });
+          break;
+        }
+        rowErrors.push({ line: err.line, column: err.column ?? null, message: err.detail });
+        text = blankLine(text, err.line);
+      }
+    }
+    if (!imported) {
+      return { fileName, bytes: bytes.length, sha256: sha256(bytes), units: null, dialect: null, headers: [], columns: {}, warnings: [], rows: 0, first: [], rowErrors, truncated: rowErrors.length >= PREVIEW_ERROR_LIMIT };
+    }
     return {
+      rowErrors,
+      truncated: rowErrors.length >= PREVIEW_ERROR_LIMIT,
       fileName,
       bytes: bytes.length,
       sha256: sha256(bytes),

@@ -43,7 +43,31 @@ function ProblemBox({ error }: { error: unknown }) {
   );
 }
 
+function RowErrors({ p }: { p: ImportPreview }) {
+  if (p.rowErrors.length === 0) return null;
+  return (
+    <section role="alert" aria-label="Row errors" className="rounded border border-sev-error/40 bg-sev-error/5 p-3 text-sm">
+      <p className="font-medium text-sev-error">
+        {p.rowErrors.length}{p.truncated ? '+' : ''} row{p.rowErrors.length === 1 ? '' : 's'} cannot be read — fix {p.rowErrors.length === 1 ? 'it' : 'them'} in the file (or the column mapping) and choose it again. Nothing is imported while any remain.
+      </p>
+      <table className="mt-2 w-full text-xs">
+        <thead className="text-left text-ink-500"><tr><th className="py-1 pr-3 font-medium">Line</th><th className="pr-3 font-medium">Column</th><th className="font-medium">Problem</th></tr></thead>
+        <tbody>
+          {p.rowErrors.map((e, i) => (
+            <tr key={i} className="border-t border-sev-error/20">
+              <td className="num py-1 pr-3">{e.line}</td>
+              <td className="num pr-3">{e.column ?? '—'}</td>
+              <td>{e.message}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </section>
+  );
+}
+
 function Dialect({ p }: { p: ImportPreview }) {
+  if (!p.dialect) return null;
   const d = p.dialect as { delimiter: string; decimalComma: boolean; headerLine: number; bom: boolean; lineEnding: string; unitsSource: string };
   const delim = d.delimiter === '\t' ? 'tab' : d.delimiter === ',' ? 'comma' : 'semicolon';
   return (
@@ -52,7 +76,7 @@ function Dialect({ p }: { p: ImportPreview }) {
       <dt className="text-ink-500">SHA-256</dt><dd className="num break-all text-xs">{p.sha256}</dd>
       <dt className="text-ink-500">Delimiter</dt><dd>{delim}{d.decimalComma ? ', decimal comma' : ''}</dd>
       <dt className="text-ink-500">Header row</dt><dd>line <span className="num">{d.headerLine}</span>{d.bom ? ' · UTF-8 BOM' : ''} · {d.lineEnding === '\r\n' ? 'CRLF' : d.lineEnding === '\r' ? 'CR' : 'LF'} line ends</dd>
-      <dt className="text-ink-500">Units</dt><dd><span className="num">{p.units}</span> (from the {d.unitsSource === 'option' || d.unitsSource === 'job' ? 'option you chose' : d.unitsSource})</dd>
+      <dt className="text-ink-500">Units</dt><dd><span className="num">{p.units ?? '—'}</span> (from the {d.unitsSource === 'option' || d.unitsSource === 'job' ? 'option you chose' : d.unitsSource})</dd>
       <dt className="text-ink-500">Rows</dt><dd className="num">{p.rows}</dd>
     </dl>
   );
@@ -127,7 +151,7 @@ export default function ImportStage() {
             {progress !== undefined && <ProgressBar value={progress * 100} label="Uploading" />}
             {busy && progress === undefined && <ProgressBar label="Reading the file" />}
             <Button
-              disabled={!file || !preview.data || busy}
+              disabled={!file || !preview.data || preview.data.rowErrors.length > 0 || busy}
               onClick={() => {
                 if (!file) return;
                 setProgress(0);
@@ -159,6 +183,7 @@ export default function ImportStage() {
           </p>
         ) : (
           <div className="flex flex-col gap-4">
+            <RowErrors p={preview.data} />
             <Dialect p={preview.data} />
             <div>
               <h3 className="mb-2 text-sm font-semibold">Column mapping</h3>
