@@ -1,6 +1,6 @@
 // Centroid import: dialect sniffing, header mapping, units, normalisation (CLI.md "Import").
 import Papa from 'papaparse';
-import { MM_PER_UNIT } from '../geometry';
+import { toMm } from '../geometry';
 import { EngineInputError } from '../pipeline/errors';
 import type {
   BottomRotation,
@@ -258,10 +258,10 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
   const headerUnit = hx ?? hy;
   // the factor for plain numbers when the units are known before reading the rows (else NaN:
   // fixed after the rows, once a unit suffix on the values has told them)
-  const knownFactor = opts.units ? MM_PER_UNIT[opts.units] : headerUnit ? MM_PER_UNIT[headerUnit] : NaN;
+  const knownUnit: Units | null = opts.units ?? headerUnit ?? null;
 
   const { table, xs, ys, xu, yu, firstSuffix, anyPlain, firstPlainLine } = readRows(rows, {
-    file, hasQuotes, minCells, iRef, iX, iY, iRot, iSide, iFp, iVal, iPn, iDnp, dnpInverted, decimalComma, knownFactor, infos,
+    file, hasQuotes, minCells, iRef, iX, iY, iRot, iSide, iFp, iVal, iPn, iDnp, dnpInverted, decimalComma, knownUnit, infos,
     headerLine, bottomRotation: opts.bottomRotation ?? 'bottom-view',
   });
   if (table.count === 0) {
@@ -311,12 +311,11 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
       code: 'no-units',
     });
   }
-  const fileFactor = MM_PER_UNIT[units];
   let mixed = false;
-  if (knownFactor !== fileFactor) {
+  if (knownUnit !== units) {
     for (let i = 0; i < table.count; i++) {
-      if (!xu[i]) table.x[i] = xs[i] * fileFactor;
-      if (!yu[i]) table.y[i] = ys[i] * fileFactor;
+      if (!xu[i]) table.x[i] = toMm(xs[i], units);
+      if (!yu[i]) table.y[i] = toMm(ys[i], units);
     }
   }
   if (firstSuffix) {
@@ -432,7 +431,8 @@ interface RowContext {
   iDnp: number;
   dnpInverted: boolean;
   decimalComma: boolean;
-  knownFactor: number;
+  /** units of plain numbers when known before the rows (option or header), else null */
+  knownUnit: Units | null;
   infos: HeaderInfo[];
   headerLine: number;
   bottomRotation: BottomRotation;
@@ -440,7 +440,7 @@ interface RowContext {
 
 /** The row loop, on its own so that the engine optimises it as a small function. */
 function readRows(rows: string[][], c: RowContext) {
-  const { hasQuotes, minCells, iRef, iX, iY, iRot, iSide, iFp, iVal, iPn, iDnp, dnpInverted, decimalComma, knownFactor, infos, headerLine } = c;
+  const { hasQuotes, minCells, iRef, iX, iY, iRot, iSide, iFp, iVal, iPn, iDnp, dnpInverted, decimalComma, knownUnit, infos, headerLine } = c;
   const n = rows.length;
   const xs = new Float64Array(n);
   const ys = new Float64Array(n);
@@ -556,8 +556,10 @@ function readRows(rows: string[][], c: RowContext) {
       else if (bottomRotation === 'mirror-180') rotation = 180 - rot;
     }
     refs[idx] = ref;
-    X[idx] = ux ? vx * MM_PER_UNIT[ux] : vx * knownFactor;
-    Y[idx] = uy ? vy * MM_PER_UNIT[uy] : vy * knownFactor;
+    const kx = ux ?? knownUnit;
+    const ky = uy ?? knownUnit;
+    X[idx] = kx ? toMm(vx, kx) : NaN;
+    Y[idx] = ky ? toMm(vy, ky) : NaN;
     R[idx] = normRotation(rotation);
     if (side === 'bottom') bottom[idx] = 1;
     fps[idx] = iFp >= 0 ? trimCell(row[iFp] ?? '') : '';

@@ -30,7 +30,13 @@ export const MM_PER_UNIT: Readonly<Record<LengthUnit, number>> = {
   in: MM_PER_INCH,
 };
 
-export const toMm = (v: number, unit: LengthUnit): Mm => (v * MM_PER_UNIT[unit]) as Mm;
+/**
+ * v in `unit` → mm as v·254 / 10 (in) or v·254 / 10000 (mil): for values with a few decimals the
+ * product is exact and the one division correctly rounded, so 550 mil gives 13.97, not
+ * 13.969999999999999 (what v·0.0254 gives).
+ */
+export const toMm = (v: number, unit: LengthUnit): Mm =>
+  (unit === 'mm' ? v : unit === 'mil' ? (v * 254) / 10000 : (v * 254) / 10) as Mm;
 
 const DEG = Math.PI / 180;
 export const degToRad = (d: Deg | number): Rad => (d * DEG) as Rad;

@@ -79,3 +79,14 @@ describe('affine', () => {
     expect(affineRotationDeg(rotationAffine(-30))).toBeCloseTo(330, 9);
   });
 });
+
+describe('unit conversion keeps short decimals short', () => {
+  test.each([
+    [550, 'mil', 13.97], // 550 × 0.0254 = 13.97 (NIST SP 811: 1 mil = 0.0254 mm)
+    [1250.5, 'mil', 31.7627], // 1250.5 × 0.0254
+    [0.1, 'in', 2.54], // 0.1 × 25.4 (NIST SP 811: 1 in = 25.4 mm)
+    [3.3, 'in', 83.82],
+  ] as const)('%s %s = %s mm exactly as written', (v, u, mmv) => {
+    expect(toMm(v, u)).toBe(mmv);
+  });
+});
