@@ -8,7 +8,7 @@ export const REQUIRED_FIELDS: readonly Field[] = ['ref', 'x', 'y', 'rotation'];
 
 /** normalised spellings (lowercase letters and digits only) → field */
 const FAMILIES: Record<Field, string[]> = {
-  ref: ['ref', 'refdes', 'designator', 'reference', 'referencedesignator', 'refdesignator', 'part'],
+  ref: ['ref', 'refdes', 'designator', 'reference', 'referencedesignator', 'refdesignator'],
   x: ['x', 'posx', 'midx', 'centerx', 'centrex', 'refx', 'locx', 'positionx', 'xpos', 'xposition', 'xcenter', 'xloc'],
   y: ['y', 'posy', 'midy', 'centery', 'centrey', 'refy', 'locy', 'positiony', 'ypos', 'yposition', 'ycenter', 'yloc'],
   rotation: ['rot', 'rotation', 'angle', 'orientation', 'rotate', 'theta'],

@@ -152,9 +152,11 @@ describe('dialects', () => {
   });
 
   test('--map names a column the families do not know', () => {
-    const r = importCentroid('Part,Xpos,Ypos,Turn\nR1,1,2,90\n', { units: 'mm', map: { rotation: 'Turn' } });
-    expect(r.placements[0].rotation).toBe(90);
-    expect(r.columns.rotation).toBe('Turn');
+    const r = importCentroid('Part,Xpos,Ypos,Turn\nR1,1,2,90\n', { units: 'mm', map: { ref: 'Part', rotation: 'Turn' } });
+    expect(r.placements[0]).toMatchObject({ ref: 'R1', rotation: 90 });
+    expect(r.columns).toMatchObject({ ref: 'Part', rotation: 'Turn', x: 'Xpos' });
+    // without the map, "Part" is not taken for the reference (it often means a part number)
+    expect(() => importCentroid('Part,Xpos,Ypos,Turn\nR1,1,2,90\n', { units: 'mm' })).toThrow(EngineInputError);
   });
 
   test('no side column: all top, with a warning', () => {
