@@ -52,7 +52,7 @@ describe('cli import', () => {
   });
   test('--map and --bottom-rotation', async () => {
     const f = write('map.csv', 'Part,Xpos,Ypos,Turn,Side\nR1,1,2,30,bottom\n');
-    const r = await cli('import', f, '--units', 'mm', '--map', 'rotation=Turn', '--bottom-rotation', 'mirror-180');
+    const r = await cli('import', f, '--units', 'mm', '--map', 'ref=Part', '--map', 'rotation=Turn', '--bottom-rotation', 'mirror-180');
     expect(r.code).toBe(0);
     expect(JSON.parse(r.stdout).placements[0].rotation).toBe(150);
   });
