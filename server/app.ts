@@ -133,7 +133,7 @@ export function createApp(deps: AppDeps): Express & { locals: { routes: ApiRoute
   registerUserRoutes(api, users);
   registerAuditRoutes(api, audit);
   registerMailRoutes(api, ds);
-  registerLibraryRoutes(api, { ds, audit, users, mailer, publicUrl: env.PUBLIC_URL ?? `http://localhost:${env.PORT}` });
+  registerLibraryRoutes(api, { ds, audit, users, mailer, publicUrl });
   registerProgramRoutes(api, programs, runFiles);
   registerOpenApiRoutes(api, APP_VERSION);
   app.use('/api', api.router);
