@@ -8,19 +8,10 @@ import { writeFileSync, mkdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { library } from './library.source';
+import { mulberry32 } from '../tests/helpers/prng';
 
 const here = dirname(fileURLToPath(import.meta.url));
 
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 type Pkg = (typeof library.packages)[number];
 const pkgByName = new Map(library.packages.map((p) => [p.name, p]));

@@ -8,17 +8,8 @@ import { runJob } from '../../shared/pipeline/run-job';
 import { writePlacementListCsv } from '../../shared/placement-list/write';
 import { jobSchema } from '../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
+import { mulberry32 } from '../helpers/prng';
 
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const FOOTPRINTS = ['R0402', 'C0402', 'R0603', 'C0603', 'SOT23', 'SOIC8', 'QFN32-5x5'];
 

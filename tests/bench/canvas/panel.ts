@@ -5,18 +5,8 @@
 // keep apart, as on a real board; the few that find no free spot overlap (findings to draw).
 import { allocatePlacementColumns } from '../../../shared/pipeline/records';
 import type { BoardInstanceResult, Quad, RunResult } from '../../../shared/pipeline/types';
+import { mulberry32 } from '../../helpers/prng';
 
-/** mulberry32: a small seeded PRNG, so runs compare like for like. */
-export function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 // [package, L, W, H, weight, nozzle]
 const MIX: [string, number, number, number, number, string][] = [

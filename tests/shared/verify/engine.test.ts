@@ -8,7 +8,8 @@ import { compareRefs } from '../../../shared/verify/natural';
 import { checkResultSchema, findingSchema, FINDING_KINDS } from '../../../shared/schemas/finding.schema';
 import type { VerifyInput } from '../../../shared/verify/types';
 import runVerifyTask from '../../../shared/verify/task';
-import { mulberry32, randomPanel } from './random-panel';
+import { mulberry32 } from '../../helpers/prng';
+import { randomPanel } from './random-panel';
 
 /** A crowded random two-sided layout: many overlaps, courtyards, shadows, strays. */
 function crowded(seed: number, n: number): VerifyInput {

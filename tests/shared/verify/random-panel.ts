@@ -2,18 +2,8 @@
 // (a jittered 2.2 mm cell grid, mostly passive chips, some ICs, a few tall parts), stepped out
 // in a grid with every other board turned 180°, board-local fiducials in three corners.
 import type { BoardOutline, VerifyFiducial, VerifyInput } from '../../../shared/verify/types';
+import { mulberry32 } from '../../helpers/prng';
 
-/** mulberry32: a small, fast, seeded PRNG (same seed, same panel). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 interface Pkg {
   name: string;
