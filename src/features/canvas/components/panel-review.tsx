@@ -1,7 +1,7 @@
 // The review composition: canvas + placement table + findings table with linked selection, layer
 // toggles, filters, measure, underlay and comments. Data in, callbacks out: the programs workspace
 // stores checked marks, comments and the underlay.
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { RunResult, Side } from '../../../../shared/pipeline/types';
 import type { Finding } from '../../../../shared/schemas/finding.schema';
 import { Button } from '../../../components/ui/button';
@@ -33,6 +33,22 @@ export interface PanelReviewProps {
   onUnderlayChange?: (side: Side, underlay: UnderlayState | null, file?: File) => void;
   canvasHeight?: number;
   onDraw?: (stats: DrawStats) => void;
+  /** a finding to show: its side is chosen, it and its parts are selected and the view centres on
+   * it (change `seq` to show the same finding again) */
+  showFinding?: { key: string; seq: number } | null;
+}
+
+/** Where to look for a finding: the middle of what it draws. */
+function findingCentre(f: Finding): { x: number; y: number; size: number } {
+  const g = f.geometry;
+  if (g.type === 'point') return { x: g.x, y: g.y, size: 6 };
+  if (g.type === 'segment') return { x: (g.from[0] + g.to[0]) / 2, y: (g.from[1] + g.to[1]) / 2, size: Math.max(6, Math.hypot(g.to[0] - g.from[0], g.to[1] - g.from[1]) * 3) };
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const [x, y] of g.points) {
+    minX = Math.min(minX, x); maxX = Math.max(maxX, x);
+    minY = Math.min(minY, y); maxY = Math.max(maxY, y);
+  }
+  return { x: (minX + maxX) / 2, y: (minY + maxY) / 2, size: Math.max(6, (maxX - minX) * 3, (maxY - minY) * 3) };
 }
 
 export function PanelReview({
@@ -47,6 +63,7 @@ export function PanelReview({
   onUnderlayChange,
   canvasHeight = 560,
   onDraw,
+  showFinding,
 }: PanelReviewProps) {
   const sides = (['top', 'bottom'] as const).filter((s) => runs[s]);
   const [side, setSide] = useState<Side>(initialSide && runs[initialSide] ? initialSide : sides[0] ?? 'top');
@@ -59,6 +76,20 @@ export function PanelReview({
   const scene = useMemo(() => (run ? buildScene(run, sideFindings) : null), [run, sideFindings]);
   const selectedFindings = useCanvasState(store, (s) => s.selectedFindings);
   useEffect(() => store.setFilters({ packages: [], nozzles: [], kinds: [] }), [side, store]);
+  const shownSeq = useRef(0);
+  useEffect(() => {
+    if (!showFinding || showFinding.seq === shownSeq.current) return;
+    const f = findings.find((x) => x.key === showFinding.key);
+    if (!f || !runs[f.side]) return;
+    if (f.side !== side) {
+      setSide(f.side);
+      return; // the scene of that side is built first; this runs again with it
+    }
+    shownSeq.current = showFinding.seq;
+    store.selectFindings([f.key]);
+    const c = findingCentre(f);
+    store.focusOn(c.x, c.y, c.size);
+  }, [showFinding, findings, runs, side, store, scene]);
 
   if (!run || !scene) return <p className="text-sm text-ink-500">Nothing to draw: no side of this panel was run.</p>;
   const underlay = underlays[side] ?? null;

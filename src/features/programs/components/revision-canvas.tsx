@@ -19,7 +19,7 @@ function readDataUrl(file: File): Promise<string> {
  * The canvas overlay for a revision: both sides as the engine computes them, its findings, the
  * review's pinned comments and checked marks, and the image underlays — persisted on the server.
  */
-export function RevisionCanvas({ r, height = 560 }: { r: RevisionDetail; height?: number }) {
+export function RevisionCanvas({ r, height = 560, showFinding }: { r: RevisionDetail; height?: number; showFinding?: { key: string; seq: number } | null }) {
   const hasBottom = !!r.imported && r.imported.bottom > 0;
   const top = useRun(r.id, 'top', r.version);
   const bottom = useRun(r.id, 'bottom', r.version, hasBottom);
@@ -64,6 +64,7 @@ export function RevisionCanvas({ r, height = 560 }: { r: RevisionDetail; height?
       comments={notes}
       checkedFindingKeys={checked}
       canvasHeight={height}
+      showFinding={showFinding}
       onAddComment={open ? (n) => addComment.mutate({ side: n.side, kind: 'comment', x: n.x, y: n.y, findingKey: null, text: n.text }, { onError: (e) => toast.error(e.message) }) : undefined}
       onToggleChecked={
         open

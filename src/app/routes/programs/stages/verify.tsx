@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import { toast } from 'sonner';
 import type { Finding } from '../../../../../shared/schemas/finding.schema';
 import { Button } from '../../../../components/ui/button';
@@ -47,6 +47,12 @@ export default function VerifyStage() {
   const unwaive = useUnwaive(r.id);
   const [waiving, setWaiving] = useState<string | null>(null);
   const [openKinds, setOpenKinds] = useState<Set<string>>(new Set());
+  const [shown, setShown] = useState<{ key: string; seq: number } | null>(null);
+  const canvasRef = useRef<HTMLElement>(null);
+  const showOnCanvas = (key: string) => {
+    setShown((s) => ({ key, seq: (s?.seq ?? 0) + 1 }));
+    canvasRef.current?.scrollIntoView({ behavior: 'smooth', block: 'start' });
+  };
   const waivers = useMemo(() => new Map(r.waivers.map((w) => [w.findingKey, w])), [r.waivers]);
   const groups = useMemo(() => {
     const m = new Map<string, Finding[]>();
@@ -96,6 +102,7 @@ export default function VerifyStage() {
                         <li key={f.key} className="px-4 py-2 text-sm">
                           <div className="flex items-start gap-3">
                             <span className="flex-1">{f.message}{f.depth !== null && <span className="num ml-2 text-xs text-ink-500">depth {mm(f.depth)}</span>}</span>
+                            <Button variant="ghost" className="px-2 py-0.5 text-xs" onClick={() => showOnCanvas(f.key)}>Show on canvas</Button>
                             {w ? (
                               <span className="text-xs text-ink-600">Waived by {w.userEmail}, {dateTime(w.at)}: <em>{w.reason}</em>{r.can.edit && <button type="button" className="ml-2 text-copper-700 underline" onClick={() => unwaive.mutate(w.id, { onError: (e) => toast.error(e.message) })}>remove</button>}</span>
                             ) : (
@@ -116,9 +123,9 @@ export default function VerifyStage() {
       )}
       {r.findings && r.findings.length === 0 && <p className="rounded border border-mask-400/50 bg-mask-400/10 p-3 text-sm">No findings: the panel is clean.</p>}
 
-      <section aria-label="Canvas" className="flex flex-col gap-2">
+      <section ref={canvasRef} aria-label="Canvas" className="flex flex-col gap-2">
         <h2 className="font-semibold">On the panel</h2>
-        <RevisionCanvas r={r} />
+        <RevisionCanvas r={r} showFinding={shown} />
       </section>
     </div>
   );
