@@ -39,7 +39,9 @@ beforeAll(async () => {
   author = await signedInAgent(ctx, ['engineer']);
   reviewer = await signedInAgent(ctx, ['engineer']);
   const admin = await signedInAgent(ctx, ['admin']);
-  const lib = await admin.a.post('/api/library/import').set('X-CSRF-Token', admin.token).send({ file: sampleLibrary(), mode: 'replace' });
+  // Merge, not replace: the browser tests share one database (seeded with the starter library), and
+  // vitest may run the files in any order.
+  const lib = await admin.a.post('/api/library/import').set('X-CSRF-Token', admin.token).send({ file: sampleLibrary(), mode: 'merge' });
   expect(lib.status, JSON.stringify(lib.body)).toBe(200);
 
   const created = await author.a.post('/api/programs').set('X-CSRF-Token', author.token).send({ name: PROGRAM, product: 'LED status strip', board: 'HCI-LS2 rev A' });
