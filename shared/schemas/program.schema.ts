@@ -42,6 +42,12 @@ export const revisionSettingsSchema = z.strictObject({
   machine: machineSchema.optional(),
 });
 export type RevisionSettings = z.output<typeof revisionSettingsSchema>;
+
+/** A job file (CLI.md) as revision settings: the job without its file names and labels. */
+export function settingsFromJob(job: Record<string, unknown>): RevisionSettings {
+  const { centroid: _c, library: _l, program: _p, revision: _r, ...settings } = job;
+  return revisionSettingsSchema.parse(settings);
+}
 export type RevisionSettingsInput = z.input<typeof revisionSettingsSchema>;
 
 export const updateSettingsInputSchema = z.object({

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { RevisionSettingsInput } from '../../shared/schemas/program.schema';
+import { settingsFromJob, type RevisionSettings } from '../../shared/schemas/program.schema';
 
 export const SAMPLES = join(import.meta.dirname, '..', '..', 'samples');
 
@@ -9,10 +9,8 @@ export function sampleFile(rel: string): Buffer {
 }
 
 /** A sample job file as revision settings (the job without its file names). */
-export function sampleSettings(jobRel: string): RevisionSettingsInput {
-  const job = JSON.parse(readFileSync(join(SAMPLES, jobRel), 'utf8'));
-  const { centroid: _c, library: _l, program: _p, revision: _r, ...settings } = job;
-  return settings;
+export function sampleSettings(jobRel: string): RevisionSettings {
+  return settingsFromJob(JSON.parse(readFileSync(join(SAMPLES, jobRel), 'utf8')));
 }
 
 export function sampleLibrary(): unknown {

@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { DataSource } from 'typeorm';
-import { revisionSettingsSchema, type RevisionSettings } from '../../../shared/schemas/program.schema';
+import { settingsFromJob, type RevisionSettings } from '../../../shared/schemas/program.schema';
 import { Program } from '../entities/program.entity';
 import { User } from '../entities/user.entity';
 import { AuditService } from '../../modules/audit/audit.service';
@@ -15,9 +15,7 @@ import { UserService } from '../../modules/users/user.service';
 const SAMPLES = join(dirname(fileURLToPath(import.meta.url)), '..', '..', '..', 'samples');
 
 function sampleSettings(jobRel: string, tweak: (s: RevisionSettings) => void = () => {}): RevisionSettings {
-  const job = JSON.parse(readFileSync(join(SAMPLES, jobRel), 'utf8'));
-  const { centroid: _c, library: _l, program: _p, revision: _r, ...rest } = job;
-  const settings = revisionSettingsSchema.parse(rest);
+  const settings = settingsFromJob(JSON.parse(readFileSync(join(SAMPLES, jobRel), 'utf8')));
   tweak(settings);
   return settings;
 }

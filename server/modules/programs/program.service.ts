@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
+import { PackageMatcher } from '../../../shared/library';
 import { EngineInputError } from '../../../shared/pipeline/errors';
 import type { ImportResult, Side } from '../../../shared/pipeline/types';
 import { runResultToJson, type RunResultJson } from '../../../shared/pipeline/serialize';
@@ -628,21 +629,13 @@ export function decodeText(bytes: Buffer, fileName: string): string {
   }
 }
 
+/** Footprints of the import that no package matches (the engine's own matching rules), with counts. */
 function unmatchedFootprints(imported: ImportResult, library: LibraryFile): { footprint: string; count: number }[] {
-  const names = new Set<string>();
-  const exact = new Set(library.packages.flatMap((p) => [p.name.toLowerCase(), ...(p.aliases ?? []).filter((a) => !/[*?]/.test(a)).map((a) => a.toLowerCase())]));
-  const patterns = library.packages.flatMap((p) => (p.aliases ?? []).filter((a) => /[*?]/.test(a))).map((a) => new RegExp('^' + a.replace(/[.+^${}()|[\]\\]/g, '\\$&').replace(/\*/g, '.*').replace(/\?/g, '.') + '$', 'i'));
+  const matcher = new PackageMatcher(library.packages);
   const counts = new Map<string, number>();
   for (const p of imported.placements) {
-    if (p.dnp) continue;
-    const f = p.footprint;
-    const key = f.toLowerCase();
-    if (exact.has(key) || names.has(key)) continue;
-    if (patterns.some((re) => re.test(f))) {
-      names.add(key);
-      continue;
-    }
-    counts.set(f, (counts.get(f) ?? 0) + 1);
+    if (p.dnp || matcher.match(p.footprint).pkg) continue;
+    counts.set(p.footprint, (counts.get(p.footprint) ?? 0) + 1);
   }
   return [...counts].map(([footprint, count]) => ({ footprint, count }));
 }
