@@ -22,7 +22,7 @@ import {
 import { Program, ProgramRevision, ReleaseFile, RevisionComment, RevisionWaiver, type RevisionState } from '../../db/entities/program.entity';
 import { User } from '../../db/entities/user.entity';
 import { BadRequestError, ConflictError, ForbiddenError, NotFoundError } from '../../lib/errors';
-import type { AuditActor, AuditService } from '../audit/audit.service';
+import type { AuditService } from '../audit/audit.service';
 import type { Mailer } from '../mail/mailer';
 import type { UserService } from '../users/user.service';
 import type { CheckPool } from './check-pool';
