@@ -53,6 +53,11 @@ RAW[K_NO_PACKAGE] = { kind: 'no-package', severity: 'error' };
 RAW[K_NO_NOZZLE] = { kind: 'no-nozzle', severity: 'error' };
 
 const KIND_RANK = new Map<FindingKind, number>(FINDING_KINDS.map((k, i) => [k, i]));
+/** First sort key of each raw kind: errors first, then the kinds in FINDING_KINDS order. */
+const KIND_KEY = RAW.map((r) => (r.severity === 'error' ? 0 : 100) + KIND_RANK.get(r.kind)!);
+
+/** ".00" … ".99" */
+const CENTS: string[] = Array.from({ length: 100 }, (_, i) => (i < 10 ? '.0' : '.') + i);
 
 /** Millimetres for a message: two decimals, more for tiny values ("0.21", "0.0042"). */
 export function fmtMm(v: number): string {
@@ -63,7 +68,7 @@ export function fmtMm(v: number): string {
     const n = Math.round(a * 100);
     const ip = (n / 100) | 0;
     const fr = (n - ip * 100) | 0;
-    return (v < 0 ? '-' : '') + ip + (fr < 10 ? '.0' : '.') + fr;
+    return v < 0 ? '-' + ip + CENTS[fr] : ip + CENTS[fr];
   }
   return Number(v.toPrecision(2)).toString();
 }
@@ -99,7 +104,9 @@ export function buildReport(
   const ctx: Ctx = { input, P, O, sink, swap };
   const kept = Math.min(n, limit);
   const findings: Finding[] = new Array(kept);
+  resetCaches(input.count);
   for (let t = 0; t < kept; t++) findings[t] = draft(ctx, order[t]);
+  resetCaches(0);
 
   const byKind = Object.fromEntries(FINDING_KINDS.map((k) => [k, 0])) as Record<FindingKind, number>;
   let errors = 0;
@@ -131,22 +138,41 @@ export function buildReport(
 function sortKeys(input: VerifyInput, sink: FindingSink, swap: Uint8Array): Float64Array {
   const n = sink.size;
   const { board, ref } = input;
-  // natural rank of the references that occur in findings
-  const names = new Set<string>();
+  // natural rank of the references that occur in findings: an id per distinct reference (one
+  // map lookup per placement, not per record), then the ids' ranks
+  const idOf = new Int32Array(input.count).fill(-1);
+  const idByName = new Map<string, number>();
+  const names: string[] = [];
+  const nameId = (i: number): number => {
+    let id = idOf[i];
+    if (id < 0) {
+      const name = ref[i];
+      const known = idByName.get(name);
+      if (known === undefined) {
+        id = names.length;
+        idByName.set(name, id);
+        names.push(name);
+      } else {
+        id = known;
+      }
+      idOf[i] = id;
+    }
+    return id;
+  };
   for (let k = 0; k < n; k++) {
     const raw = sink.kind[k];
     if (isBoardKind(raw)) continue;
-    names.add(ref[sink.a[k]]);
-    if (isPairKind(raw)) names.add(ref[sink.b[k]]);
+    nameId(sink.a[k]);
+    if (isPairKind(raw)) nameId(sink.b[k]);
   }
-  const sorted = sortRefsNatural([...names]);
-  const rank = new Map<string, number>();
-  for (let r = 0; r < sorted.length; r++) rank.set(sorted[r], r);
+  const sorted = sortRefsNatural(names);
+  const rankOfId = new Int32Array(names.length);
+  for (let r = 0; r < sorted.length; r++) rankOfId[idByName.get(sorted[r])!] = r;
   const keys = new Float64Array(5 * n);
   for (let k = 0; k < n; k++) {
     const raw = sink.kind[k];
     const o = 5 * k;
-    keys[o] = (RAW[raw].severity === 'error' ? 0 : 100) + KIND_RANK.get(RAW[raw].kind)!;
+    keys[o] = KIND_KEY[raw];
     keys[o + 2] = -1;
     keys[o + 3] = -1;
     keys[o + 4] = -1;
@@ -160,11 +186,11 @@ function sortKeys(input: VerifyInput, sink: FindingSink, swap: Uint8Array): Floa
     } else {
       const i = sink.a[k];
       let b1 = board[i];
-      let r1 = rank.get(ref[i])!;
+      let r1 = rankOfId[idOf[i]];
       if (isPairKind(raw)) {
         const j = sink.b[k];
         let b2 = board[j];
-        let r2 = rank.get(ref[j])!;
+        let r2 = rankOfId[idOf[j]];
         if (b2 < b1 || (b2 === b1 && r2 < r1)) {
           swap[k] = 1;
           const tb = b1;
@@ -185,39 +211,57 @@ function sortKeys(input: VerifyInput, sink: FindingSink, swap: Uint8Array): Floa
 }
 
 /** Record indices in report order (keys: five numbers per record; ties by index). */
-function sortOrder(keys: Float64Array, n: number): number[] {
-  const order = new Array<number>(n);
-  for (let k = 0; k < n; k++) order[k] = k;
-  // two packed numbers per record when the values fit (they do for any real panel), else five
+function sortOrder(keys: Float64Array, n: number): ArrayLike<number> {
+  // one number per record (rank, subjects and the record index in mixed radix) when the product
+  // of the ranges stays exact (below 2^53; it does for any real panel): a native numeric sort
   const packed = packKeys(keys, n);
   if (packed) {
-    const [k1, k2] = packed;
-    order.sort((x, y) => k1[x] - k1[y] || k2[x] - k2[y] || x - y);
-  } else {
-    order.sort((x, y) => {
-      for (let f = 0; f < 5; f++) {
-        const d = keys[5 * x + f] - keys[5 * y + f];
-        if (d !== 0) return d;
-      }
-      return x - y;
-    });
+    packed.sort();
+    const order = new Int32Array(n);
+    for (let t = 0; t < n; t++) {
+      const v = packed[t];
+      order[t] = v - Math.floor(v / n) * n;
+    }
+    return order;
   }
+  const order = new Array<number>(n);
+  for (let k = 0; k < n; k++) order[k] = k;
+  order.sort((x, y) => {
+    for (let f = 0; f < 5; f++) {
+      const d = keys[5 * x + f] - keys[5 * y + f];
+      if (d !== 0) return d;
+    }
+    return x - y;
+  });
   return order;
 }
 
-const P21 = 2 ** 21;
-
-/** (kind, board, rank) → one number and (board, rank) → another, exact below 2^53. */
-function packKeys(keys: Float64Array, n: number): [Float64Array, Float64Array] | null {
-  for (let k = 0; k < 5 * n; k++) if (keys[k] + 1 >= P21) return null;
-  const k1 = new Float64Array(n);
-  const k2 = new Float64Array(n);
+/** Each record's five keys and its index as one exact number, or null when they do not fit. */
+function packKeys(keys: Float64Array, n: number): Float64Array | null {
+  // ranges: the first key (severity and kind, < 200), boards and ranks (≥ -1)
+  let maxB = -1;
+  let maxR = -1;
+  let maxK = 0;
   for (let k = 0; k < n; k++) {
     const o = 5 * k;
-    k1[k] = (keys[o] * P21 + keys[o + 1] + 1) * P21 + keys[o + 2] + 1;
-    k2[k] = (keys[o + 3] + 1) * P21 + keys[o + 4] + 1;
+    if (keys[o] > maxK) maxK = keys[o];
+    if (keys[o + 1] > maxB) maxB = keys[o + 1];
+    if (keys[o + 3] > maxB) maxB = keys[o + 3];
+    if (keys[o + 2] > maxR) maxR = keys[o + 2];
+    if (keys[o + 4] > maxR) maxR = keys[o + 4];
   }
-  return [k1, k2];
+  const NB = maxB + 2;
+  const NR = maxR + 2;
+  const S = NB * NR;
+  if ((maxK + 1) * S * S * n >= 2 ** 53) return null;
+  const out = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const o = 5 * k;
+    const s1 = (keys[o + 1] + 1) * NR + keys[o + 2] + 1;
+    const s2 = (keys[o + 3] + 1) * NR + keys[o + 4] + 1;
+    out[k] = ((keys[o] * S + s1) * S + s2) * n + k;
+  }
+  return out;
 }
 
 function isPairKind(raw: number): boolean {
@@ -236,15 +280,49 @@ interface Ctx {
   swap: Uint8Array;
 }
 
-/** The string as one flat piece (a long concatenation is otherwise a tree of small pieces that
- * the garbage collector keeps moving while the report is built). */
-function flat(str: string): string {
-  str.charCodeAt(0);
-  return str;
+// Texts of a placement, made once per report (a part is often in more than one finding): a slot
+// per placement seen, dense arrays of texts by slot.
+let slotOf = new Int32Array(0);
+let nameText: string[] = [];
+let refText: string[] = [];
+let tallText: (string | null)[] = [];
+
+function resetCaches(n: number): void {
+  slotOf = new Int32Array(n).fill(-1);
+  nameText = [];
+  refText = [];
+  tallText = [];
 }
 
+function slot(input: VerifyInput, i: number): number {
+  let k = slotOf[i];
+  if (k < 0) {
+    k = slotOf[i] = nameText.length;
+    const r = input.ref[i];
+    const b = input.board[i];
+    nameText.push(`${r} on board ${b}`);
+    refText.push(`${b}:${r}`);
+    tallText.push(null);
+  }
+  return k;
+}
+
+/** "C12 on board 3" */
 function partName(input: VerifyInput, i: number): string {
-  return `${input.ref[i]} on board ${input.board[i]}`;
+  return nameText[slot(input, i)];
+}
+
+/** "C12 on board 3 (0.45 mm tall)" (a taller neighbour is often in several findings) */
+function tallName(input: VerifyInput, P: Prepared, i: number): string {
+  const k = slot(input, i);
+  let t = tallText[k];
+  if (t === null) t = tallText[k] = `${nameText[k]} (${fmtMm(P.h[i])} mm tall)`;
+  return t;
+}
+
+/** "3:C12" */
+function boardRefOf(input: VerifyInput, i: number): string {
+  return refText[slot(input, i)];
 }
 
 function singleDraft(
@@ -252,7 +330,7 @@ function singleDraft(
   geometry: FindingGeometry, depth: number | null, distance: number | null, fiducial?: string,
 ): Draft {
   const b = input.board[i];
-  const refs = [`${b}:${input.ref[i]}`];
+  const refs = [boardRefOf(input, i)];
   const finding: Finding = {
     key: findingKey(kind, refs, []),
     kind,
@@ -261,7 +339,7 @@ function singleDraft(
     board: b,
     boards: [b],
     refs,
-    message: flat(message),
+    message,
     geometry,
     depth,
     distance,
@@ -281,8 +359,7 @@ function pairDraft(
     second = i;
   }
   const board = input.board;
-  const ref = input.ref;
-  const refs = [`${board[first]}:${ref[first]}`, `${board[second]}:${ref[second]}`];
+  const refs = [boardRefOf(input, first), boardRefOf(input, second)];
   const boards = board[first] === board[second] ? [board[first]] : board[first] < board[second] ? [board[first], board[second]] : [board[second], board[first]];
   return {
     key: findingKey(kind, refs, []),
@@ -292,7 +369,7 @@ function pairDraft(
     board: board[first],
     boards,
     refs,
-    message: flat(message),
+    message,
     geometry,
     depth,
     distance,
@@ -375,7 +452,7 @@ function draft(ctx: Ctx, k: number): Draft {
     case K_SHADOW: {
       // a = the part being placed, b = the taller neighbour
       const near = nearestPointOnRect(cx[a], cy[a], cx[b], cy[b], c[b], s[b], hx[b], hy[b]);
-      const message = `${partName(input, b)} (${fmtMm(P.h[b])} mm tall) is ${fmtMm(dist)} mm from the centre of ${partName(input, a)} (${fmtMm(P.h[a])} mm tall), within its nozzle holder radius of ${fmtMm(P.R[a])} mm: place ${input.ref[a]} first`;
+      const message = `${tallName(input, P, b)} is ${fmtMm(dist)} mm from the centre of ${tallName(input, P, a)}, within its nozzle holder radius of ${fmtMm(P.R[a])} mm: place ${input.ref[a]} first`;
       return pairDraft(input, kind, severity, a, b, sw, message, { type: 'segment', from: [cx[a], cy[a]], to: near }, depth, dist);
     }
     case K_REACH: {

@@ -2,15 +2,16 @@
 // it runs in a worker thread on the server, in the CLI and in the browser.
 //
 // Method: per side, a static spatial index (flatbush) over every body's bounding box grown by its
-// own courtyard. Each part's query box is its grown box widened to its nozzle holder radius;
-// neighbouring parts (a grid bucket of about GROUP_SIZE) share one index query over the union of
-// their boxes, and each part scans the returned candidates with a box test. For a candidate: the
-// nozzle-shadow distance (point to turned rectangle) when it is taller by more than 0.5 mm, and,
-// once per unordered pair, the exact separating-axis test on the turned rectangles (penetration
-// depth, then the common area by convex clipping) for courtyards and bodies. Fiducial clear
-// circles are index queries too; containment in the board quad and the reach are per part. Hot
-// loops run on typed arrays with fields in locals; the index hands back indices, not objects;
-// findings go to a compact typed-array store (sink.ts) and become objects at the end (report.ts).
+// own courtyard, built in the cell order of a grid bucketing (planQueries). Overlaps: neighbouring
+// parts (a bucket of about GROUP_SIZE) share one index query over the union of their grown boxes;
+// each pair whose boxes meet is taken up once and gets the exact separating-axis test on the
+// turned rectangles (penetration depth, then the common area by convex clipping) for courtyards
+// and bodies. Nozzle shadow: only parts taller than the lowest nozzle part by more than 0.5 mm can
+// cast one, so they query (planShadowQueries) for the parts whose centre lies within reach, then
+// the point-to-turned-rectangle distance. Fiducial clear circles are index queries too;
+// containment in the board quad and the reach are per part. Hot loops run on typed arrays with
+// fields in locals; the index hands back indices, not objects; findings go to a compact
+// typed-array store (sink.ts) and become objects at the end (report.ts).
 //
 // `verifyBruteForce` runs the same exact tests on every pair (for the bench and the tests).
 
@@ -135,12 +136,14 @@ function run(input: VerifyInput, options: VerifyOptions, brute: boolean): Verify
   for (const side of sides) {
     const ids = P.sideIds[side];
     placements += ids.length;
-    const tree = brute ? null : buildTree(P, ids);
+    // the indexed run works in the plan's cell order (neighbours next to each other)
+    const plan = brute || ids.length === 0 ? null : planQueries(P, ids);
+    const tree = plan ? buildTree(P, plan.ids) : null;
     if (probe) probe('index');
-    if (tree) pairsIndexed(P, ids, tree, sink);
+    if (plan && tree) pairsIndexed(P, plan, tree, sink);
     else pairsBrute(P, ids, sink);
     if (probe) probe('pairs');
-    fiducialChecks(input, P, ids, side, tree, sink);
+    fiducialChecks(input, P, plan ? plan.ids : ids, side, tree, sink);
     singleChecks(input, P, O, ids, side, sink);
     // the panel layout is the same on both sides: check it once, on the first side that has it
     if (!panelDone && (O.panelBySide[side] >= 0 || hasBoards(input, side))) {
@@ -341,53 +344,41 @@ export function buildTree(P: Prepared, ids: Int32Array, nodeSize = NODE_SIZE): F
 
 export const NODE_SIZE = 16;
 
-/** Parts per index query: neighbouring parts share one query (the union of their boxes), which
- * costs far less than one tree descent each; each part then scans the few candidates. */
-export const GROUP_SIZE = 2;
+/** Parts per overlap query: neighbouring parts share one query (the union of their grown boxes),
+ * which costs far less than one tree descent each; the few candidates are then box-tested against
+ * the group's parts. */
+export const GROUP_SIZE = 16;
 
 /**
- * The index queries of one side. Each part's own query box is its grown box widened to its nozzle
- * holder radius around the centre (where a taller neighbour's body would shadow it). Parts are
- * bucketed on a grid of cells holding about `groupSize` parts each (a counting sort, O(n)); one
- * query per non-empty cell, its box the union of its parts' boxes.
+ * The overlap queries of one side. Parts are bucketed on a grid of cells holding about
+ * `groupSize` parts each (a counting sort, O(n)) and put in cell order, serpentine row by row, so
+ * that neighbours sit next to each other; the index is built in that order (build the tree over
+ * `ids` of the plan). One query per non-empty cell: the union of its parts' grown boxes (body plus
+ * courtyard).
  */
 export interface QueryPlan {
-  /** local part indices (into ids) in cell order */
-  order: Int32Array;
-  /** group g holds order[start[g] .. start[g + 1]) */
+  /** the side's placement indices in cell order; a "local index" is a position in it */
+  ids: Int32Array;
+  /** group g holds local indices start[g] .. start[g + 1] - 1 */
   start: Int32Array;
   groups: number;
   /** per group: minX, minY, maxX, maxY of the query */
   box: Float64Array;
-  /** per local part: its own query box */
-  qx0: Float64Array;
-  qy0: Float64Array;
-  qx1: Float64Array;
-  qy1: Float64Array;
+  /** per local index: the part's grown box, four numbers side by side */
+  own: Float64Array;
 }
 
-export function planQueries(P: Prepared, ids: Int32Array, groupSize = GROUP_SIZE): QueryPlan {
-  const m = ids.length;
-  const { cx, cy, gex, gey, R } = P;
-  const qx0 = scratchF64('qx0', m);
-  const qy0 = scratchF64('qy0', m);
-  const qx1 = scratchF64('qx1', m);
-  const qy1 = scratchF64('qy1', m);
+export function planQueries(P: Prepared, sideIds: Int32Array, groupSize = GROUP_SIZE): QueryPlan {
+  const m = sideIds.length;
+  const { cx, cy, gex, gey } = P;
   let minX = Infinity;
   let minY = Infinity;
   let maxX = -Infinity;
   let maxY = -Infinity;
   for (let k = 0; k < m; k++) {
-    const i = ids[k];
+    const i = sideIds[k];
     const x = cx[i];
     const y = cy[i];
-    const r = R[i];
-    const ex = gex[i] > r ? gex[i] : r;
-    const ey = gey[i] > r ? gey[i] : r;
-    qx0[k] = x - ex;
-    qy0[k] = y - ey;
-    qx1[k] = x + ex;
-    qy1[k] = y + ey;
     if (x < minX) minX = x;
     if (x > maxX) maxX = x;
     if (y < minY) minY = y;
@@ -405,7 +396,7 @@ export function planQueries(P: Prepared, ids: Int32Array, groupSize = GROUP_SIZE
   const cellOf = scratchI32('cellOf', m);
   const count = scratchI32('count', cols * rows + 1).fill(0);
   for (let k = 0; k < m; k++) {
-    const i = ids[k];
+    const i = sideIds[k];
     let c = ((cx[i] - minX) * sx) | 0;
     let r = ((cy[i] - minY) * sy) | 0;
     if (c >= cols) c = cols - 1;
@@ -420,10 +411,23 @@ export function planQueries(P: Prepared, ids: Int32Array, groupSize = GROUP_SIZE
     if (count[c] > 0) groups++;
     count[c] += count[c - 1];
   }
-  const order = scratchI32('order', m);
+  // stable within a cell, so the order depends only on the input
+  const ids = scratchI32('planIds', m);
   const fill = scratchI32('fill', cols * rows);
   fill.set(count.subarray(0, cols * rows));
-  for (let k = 0; k < m; k++) order[fill[cellOf[k]]++] = k;
+  for (let k = 0; k < m; k++) ids[fill[cellOf[k]]++] = sideIds[k];
+  const own = scratchF64('own', 4 * m);
+  for (let t = 0; t < m; t++) {
+    const i = ids[t];
+    const x = cx[i];
+    const y = cy[i];
+    const ex = gex[i];
+    const ey = gey[i];
+    own[4 * t] = x - ex;
+    own[4 * t + 1] = y - ey;
+    own[4 * t + 2] = x + ex;
+    own[4 * t + 3] = y + ey;
+  }
   const start = scratchI32('start', groups + 1);
   const box = scratchF64('box', 4 * groups);
   let g = 0;
@@ -437,11 +441,11 @@ export function planQueries(P: Prepared, ids: Int32Array, groupSize = GROUP_SIZE
     let x1 = -Infinity;
     let y1 = -Infinity;
     for (let t = a; t < b; t++) {
-      const k = order[t];
-      if (qx0[k] < x0) x0 = qx0[k];
-      if (qy0[k] < y0) y0 = qy0[k];
-      if (qx1[k] > x1) x1 = qx1[k];
-      if (qy1[k] > y1) y1 = qy1[k];
+      const o = 4 * t;
+      if (own[o] < x0) x0 = own[o];
+      if (own[o + 1] < y0) y0 = own[o + 1];
+      if (own[o + 2] > x1) x1 = own[o + 2];
+      if (own[o + 3] > y1) y1 = own[o + 3];
     }
     box[4 * g] = x0;
     box[4 * g + 1] = y0;
@@ -450,7 +454,115 @@ export function planQueries(P: Prepared, ids: Int32Array, groupSize = GROUP_SIZE
     g++;
   }
   start[groups] = m;
-  return { order, start, groups, box, qx0, qy0, qx1, qy1 };
+  return { ids, start, groups, box, own };
+}
+
+/** Height bins for the shadow reach (see planShadowQueries). */
+const SHADOW_BINS = 64;
+
+/**
+ * The nozzle-shadow queries of one side, made from the taller parts. Only a part taller by more
+ * than 0.5 mm than some part with a nozzle can cast a shadow (on most boards a minority: the low
+ * chips are the many). Each such part's reach is its body's box widened by the largest holder
+ * radius among the parts short enough for it to shadow: it holds the centre of every part it can
+ * shadow. The taller parts of one overlap group (neighbours) share one query, the union of their
+ * reaches.
+ */
+export interface ShadowPlan {
+  /** local indices (into the plan's ids) of the parts that can shadow a neighbour, ascending */
+  who: Int32Array;
+  count: number;
+  /** per such part: its reach, minX, minY, maxX, maxY */
+  reach: Float64Array;
+  /** query q covers who[start[q] .. start[q + 1]) */
+  start: Int32Array;
+  queries: number;
+  /** per query: minX, minY, maxX, maxY */
+  box: Float64Array;
+}
+
+export function planShadowQueries(P: Prepared, plan: QueryPlan): ShadowPlan {
+  const { ids } = plan;
+  const m = ids.length;
+  const { cx, cy, c, s, hx, hy, h, R } = P;
+  // heights of the parts that can be shadowed (those with a nozzle)
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let k = 0; k < m; k++) {
+    const i = ids[k];
+    if (R[i] > 0) {
+      if (h[i] < lo) lo = h[i];
+      if (h[i] > hi) hi = h[i];
+    }
+  }
+  const who = scratchI32('shadowWho', m);
+  let count = 0;
+  if (lo <= hi) {
+    for (let k = 0; k < m; k++) if (h[ids[k]] - lo > SHADOW_STEP) who[count++] = k;
+  }
+  const reach = scratchF64('shadowReach', 4 * count);
+  const start = scratchI32('shadowStart', count + 1);
+  const box = scratchF64('shadowBox', 4 * count);
+  if (count === 0) {
+    start[0] = 0;
+    return { who, count, reach, start, queries: 0, box };
+  }
+  // the largest holder radius per height bin, then a running maximum from the lowest bin up:
+  // radiusUpTo[b] bounds the radius of every part in bins 0..b
+  const radiusUpTo = new Float64Array(SHADOW_BINS);
+  const scale = SHADOW_BINS / (hi - lo || 1);
+  for (let k = 0; k < m; k++) {
+    const i = ids[k];
+    const r = R[i];
+    if (r <= 0) continue;
+    let b = ((h[i] - lo) * scale) | 0;
+    if (b >= SHADOW_BINS) b = SHADOW_BINS - 1;
+    if (r > radiusUpTo[b]) radiusUpTo[b] = r;
+  }
+  for (let b = 1; b < SHADOW_BINS; b++) if (radiusUpTo[b - 1] > radiusUpTo[b]) radiusUpTo[b] = radiusUpTo[b - 1];
+  for (let t = 0; t < count; t++) {
+    const i = ids[who[t]];
+    // parts it can shadow are lower than h − 0.5: their bin is at most the threshold's bin (one
+    // bin of margin for rounding)
+    const th = (h[i] - SHADOW_STEP - lo) * scale;
+    let b = th >= SHADOW_BINS - 1 ? SHADOW_BINS - 1 : (th | 0) + 1;
+    if (b >= SHADOW_BINS) b = SHADOW_BINS - 1;
+    const r = radiusUpTo[b];
+    const ac = Math.abs(c[i]);
+    const as = Math.abs(s[i]);
+    const ex = ac * hx[i] + as * hy[i] + r;
+    const ey = as * hx[i] + ac * hy[i] + r;
+    reach[4 * t] = cx[i] - ex;
+    reach[4 * t + 1] = cy[i] - ey;
+    reach[4 * t + 2] = cx[i] + ex;
+    reach[4 * t + 3] = cy[i] + ey;
+  }
+  // one query per overlap group that has taller parts (who is ascending, groups are ranges)
+  let queries = 0;
+  let t = 0;
+  for (let g = 0; g < plan.groups && t < count; g++) {
+    const end = plan.start[g + 1];
+    if (who[t] >= end) continue;
+    start[queries] = t;
+    let x0 = Infinity;
+    let y0 = Infinity;
+    let x1 = -Infinity;
+    let y1 = -Infinity;
+    for (; t < count && who[t] < end; t++) {
+      const o = 4 * t;
+      if (reach[o] < x0) x0 = reach[o];
+      if (reach[o + 1] < y0) y0 = reach[o + 1];
+      if (reach[o + 2] > x1) x1 = reach[o + 2];
+      if (reach[o + 3] > y1) y1 = reach[o + 3];
+    }
+    box[4 * queries] = x0;
+    box[4 * queries + 1] = y0;
+    box[4 * queries + 2] = x1;
+    box[4 * queries + 3] = y1;
+    queries++;
+  }
+  start[queries] = count;
+  return { who, count, reach, start, queries, box };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -535,107 +647,104 @@ function shadowPair(P: Prepared, sink: FindingSink, i: number, j: number): void 
   }
 }
 
-// The current group's candidates, collected next to each other straight from the tree (its boxes
-// come with each hit), so flatbush builds no result array. Module state: the engine is
-// synchronous and never re-entered.
-let candBox = new Float64Array(1024);
-let candIdx = new Int32Array(256);
-let candCount = 0;
+// The current group's candidates after its first part (module state: the engine is synchronous
+// and never re-entered).
+let cand = new Int32Array(256);
 
-function collectCandidate(kj: number, x0: number, y0: number, x1: number, y1: number): boolean {
-  const n = candCount;
-  if (n === candIdx.length) {
-    const nk = new Int32Array(2 * n);
-    nk.set(candIdx);
-    candIdx = nk;
-    const nb = new Float64Array(8 * n);
-    nb.set(candBox);
-    candBox = nb;
-  }
-  candIdx[n] = kj;
-  const o = 4 * n;
-  candBox[o] = x0;
-  candBox[o + 1] = y0;
-  candBox[o + 2] = x1;
-  candBox[o + 3] = y1;
-  candCount = n + 1;
-  return false;
+function pairsIndexed(P: Prepared, plan: QueryPlan, tree: Flatbush, sink: FindingSink): void {
+  overlapsIndexed(P, plan, tree, sink);
+  if (verifyProbe.onPhase) verifyProbe.onPhase('overlaps');
+  shadowsIndexed(P, plan, tree, sink);
 }
 
-function pairsIndexed(P: Prepared, ids: Int32Array, tree: Flatbush | null, sink: FindingSink): void {
-  if (!tree) return;
-  const { cx, cy, hx, hy, gex, gey, h, R } = P;
-  const cosA = P.c;
-  const sinA = P.s;
-  const plan = planQueries(P, ids);
-  const { order, start, box, qx0, qy0, qx1, qy1 } = plan;
-  const m = ids.length;
-  // grown boxes by local index, four numbers side by side (one cache line per candidate)
-  const lb = scratchF64('lb', 4 * m);
-  for (let k = 0; k < m; k++) {
-    const i = ids[k];
-    lb[4 * k] = cx[i] - gex[i];
-    lb[4 * k + 1] = cy[i] - gey[i];
-    lb[4 * k + 2] = cx[i] + gex[i];
-    lb[4 * k + 3] = cy[i] + gey[i];
-  }
+/** Bodies and courtyards: each unordered pair whose grown boxes meet, once, from the part that
+ * comes first in cell order (the other is a candidate of its group's query, as the union of the
+ * group's boxes holds its own box). */
+function overlapsIndexed(P: Prepared, plan: QueryPlan, tree: Flatbush, sink: FindingSink): void {
+  const { ids, start, box, own } = plan;
   for (let g = 0; g < plan.groups; g++) {
     // one descent of the tree for the whole group
-    candCount = 0;
-    tree.search(box[4 * g], box[4 * g + 1], box[4 * g + 2], box[4 * g + 3], collectCandidate);
-    const n = candCount;
-    const bb = candBox;
-    const kk = candIdx;
+    const hits = tree.search(box[4 * g], box[4 * g + 1], box[4 * g + 2], box[4 * g + 3]);
+    const first = start[g];
     const end = start[g + 1];
-    for (let t = start[g]; t < end; t++) {
-      const k = order[t];
-      const i = ids[k];
-      const hi = h[i];
-      const ri = R[i];
-      const rr = ri - TOUCH_EPS;
-      const xi = cx[i];
-      const yi = cy[i];
-      const gx0 = lb[4 * k];
-      const gy0 = lb[4 * k + 1];
-      const gx1 = lb[4 * k + 2];
-      const gy1 = lb[4 * k + 3];
-      const ax0 = qx0[k];
-      const ay0 = qy0[k];
-      const ax1 = qx1[k];
-      const ay1 = qy1[k];
-      for (let c = 0; c < n; c++) {
-        const x0 = bb[4 * c];
-        if (x0 > ax1) continue;
-        const x1 = bb[4 * c + 2];
-        if (x1 < ax0) continue;
-        const y0 = bb[4 * c + 1];
-        if (y0 > ay1) continue;
-        const y1 = bb[4 * c + 3];
-        if (y1 < ay0) continue;
-        // the candidate's grown box meets this part's own query box
-        const kj = kk[c];
-        if (kj === k) continue;
-        const j = ids[kj];
-        if (ri > 0 && h[j] - hi > SHADOW_STEP) {
-          // the nozzle shadow (as shadowPair, inlined: it runs for every taller candidate)
-          const dx = xi - cx[j];
-          const dy = yi - cy[j];
-          const cj = cosA[j];
-          const sj = sinA[j];
-          let lx = Math.abs(dx * cj + dy * sj) - hx[j];
-          let ly = Math.abs(dy * cj - dx * sj) - hy[j];
-          if (lx < rr && ly < rr) {
-            if (lx < 0) lx = 0;
-            if (ly < 0) ly = 0;
-            const d2 = lx * lx + ly * ly;
-            if (d2 < rr * rr) {
-              const dist = Math.sqrt(d2);
-              sink.add(K_SHADOW, i, j, 0, ri - dist, dist);
-            }
+    // pairs with parts of earlier groups were found there
+    if (cand.length < hits.length) cand = new Int32Array(2 * hits.length);
+    const cd = cand;
+    let n = 0;
+    for (let h = 0; h < hits.length; h++) {
+      const kj = hits[h];
+      if (kj > first) cd[n++] = kj;
+    }
+    // each candidate against the group's parts before it (a loop bound instead of a test)
+    for (let c = 0; c < n; c++) {
+      const kj = cd[c];
+      const o = 4 * kj;
+      const bx0 = own[o];
+      const by0 = own[o + 1];
+      const bx1 = own[o + 2];
+      const by1 = own[o + 3];
+      const last = kj < end ? kj : end;
+      for (let k = first; k < last; k++) {
+        const q = 4 * k;
+        // one branch for the four comparisons (they are unpredictable; the result rarely is)
+        if ((+(own[q] <= bx1) & +(own[q + 2] >= bx0) & +(own[q + 1] <= by1) & +(own[q + 3] >= by0)) === 0) continue;
+        overlapPair(P, sink, ids[k], ids[kj]);
+      }
+    }
+  }
+}
+
+/** Nozzle shadows, found from the taller parts (see planShadowQueries). */
+function shadowsIndexed(P: Prepared, plan: QueryPlan, tree: Flatbush, sink: FindingSink): void {
+  const ids = plan.ids;
+  const sp = planShadowQueries(P, plan);
+  const { who, reach, start, box } = sp;
+  const { cx, cy, hx, hy, h, R } = P;
+  const cosA = P.c;
+  const sinA = P.s;
+  for (let q = 0; q < sp.queries; q++) {
+    const hits = tree.search(box[4 * q], box[4 * q + 1], box[4 * q + 2], box[4 * q + 3]);
+    const nh = hits.length;
+    const last = start[q + 1];
+    for (let t = start[q]; t < last; t++) {
+      const kj = who[t];
+      // j: the taller part; i: a candidate it may shadow (its centre in j's reach)
+      const j = ids[kj];
+      const hj = h[j];
+      const xj = cx[j];
+      const yj = cy[j];
+      const cj = cosA[j];
+      const sj = sinA[j];
+      const hxj = hx[j];
+      const hyj = hy[j];
+      const rx0 = reach[4 * t];
+      const ry0 = reach[4 * t + 1];
+      const rx1 = reach[4 * t + 2];
+      const ry1 = reach[4 * t + 3];
+      for (let c = 0; c < nh; c++) {
+        const k = hits[c];
+        if (k === kj) continue;
+        const i = ids[k];
+        const ri = R[i];
+        const rr = ri - TOUCH_EPS;
+        if (rr <= 0 || !(hj - h[i] > SHADOW_STEP)) continue;
+        const xi = cx[i];
+        const yi = cy[i];
+        if (xi < rx0 || xi > rx1 || yi < ry0 || yi > ry1) continue;
+        // as shadowPair (inlined: it runs for every candidate)
+        const dx = xi - xj;
+        const dy = yi - yj;
+        let lx = Math.abs(dx * cj + dy * sj) - hxj;
+        let ly = Math.abs(dy * cj - dx * sj) - hyj;
+        if (lx < rr && ly < rr) {
+          if (lx < 0) lx = 0;
+          if (ly < 0) ly = 0;
+          const d2 = lx * lx + ly * ly;
+          if (d2 < rr * rr) {
+            const dist = Math.sqrt(d2);
+            sink.add(K_SHADOW, i, j, 0, ri - dist, dist);
           }
         }
-        // each unordered pair once (from its lower local index), when the grown boxes meet
-        if (kj > k && x0 <= gx1 && x1 >= gx0 && y0 <= gy1 && y1 >= gy0) overlapPair(P, sink, i, j);
       }
     }
   }

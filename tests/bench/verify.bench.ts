@@ -16,6 +16,7 @@ import v8 from 'node:v8';
 import {
   buildTree,
   planQueries,
+  planShadowQueries,
   prepare,
   verify,
   verifyBruteForce,
@@ -57,16 +58,22 @@ function timeInto(t: Times, fn: () => unknown): unknown {
 const times = (): Times => ({ wall: [], cpu: [] });
 
 /** The floor: the part boxes, the index, and the same bounding-box queries the check makes (one
- * per group of neighbouring parts, see planQueries), with nothing done with the candidates. */
+ * per group of neighbouring parts for overlaps, see planQueries, and one per group holding parts
+ * tall enough to shadow a neighbour, see planShadowQueries), with nothing done with the
+ * candidates. */
 function indexFloor(input: VerifyInput): number {
   const P = prepare(input);
   let hits = 0;
   for (const ids of P.sideIds) {
-    const tree = buildTree(P, ids);
-    if (!tree) continue;
+    if (ids.length === 0) continue;
     const plan = planQueries(P, ids);
+    const tree = buildTree(P, plan.ids);
+    if (!tree) continue;
     const b = plan.box;
     for (let g = 0; g < plan.groups; g++) hits += tree.search(b[4 * g], b[4 * g + 1], b[4 * g + 2], b[4 * g + 3]).length;
+    const shadows = planShadowQueries(P, plan);
+    const q = shadows.box;
+    for (let t = 0; t < shadows.queries; t++) hits += tree.search(q[4 * t], q[4 * t + 1], q[4 * t + 2], q[4 * t + 3]).length;
   }
   return hits;
 }

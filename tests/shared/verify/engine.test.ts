@@ -81,6 +81,46 @@ describe('indexed run = brute-force run', () => {
     expect({ ...a.summary, seconds: 0 }).toEqual({ ...b.summary, seconds: 0 });
   });
 
+  test('any heights and holder radii: the shadow queries from the taller parts miss nothing (property)', () => {
+    // heights and radii drawn freely (a low part may have the widest holder, heights may sit on the
+    // 0.5 mm step), so the reach of a taller part's query is tested against every pairing
+    const heights = [0.35, 0.6, 0.85, 1.1, 1.1000001, 1.6, 2.5, 4.0, 9.5];
+    // millimetres in thousandths, spread evenly (fast-check's doubles crowd at the bounds)
+    const mm = (min: number, max: number) => fc.integer({ min: min * 1000, max: max * 1000 }).map((v) => v / 1000);
+    const part = fc.record({
+      x: mm(0, 25),
+      y: mm(0, 25),
+      angle: fc.oneof(fc.constantFrom(0, 90, 180, 270), mm(0, 359.999)),
+      length: mm(0.2, 8),
+      width: mm(0.2, 6),
+      height: fc.oneof(fc.constantFrom(...heights), mm(0, 12)),
+      holderRadius: fc.oneof(fc.constant(0), mm(0.5, 9)),
+    });
+    fc.assert(
+      fc.property(fc.array(part, { minLength: 2, maxLength: 90 }), (specs) => {
+        const parts: PartSpec[] = specs.map((p, i) => ({
+          ref: `P${i + 1}`,
+          board: 1,
+          side: 'top',
+          x: p.x,
+          y: p.y,
+          angle: p.angle,
+          length: p.length,
+          width: p.width,
+          height: p.height,
+          courtyard: 0.1,
+          holderRadius: p.holderRadius,
+        }));
+        const input = makeVerifyInput(parts, { boards: [], panels: [], fiducials: [], reach: null });
+        const a = verify(input);
+        const b = verifyBruteForce(input);
+        expect(a.findings.map((f) => f.key)).toEqual(b.findings.map((f) => f.key));
+        expect(a.findings).toEqual(b.findings);
+      }),
+      { numRuns: 300, seed: 20261202 },
+    );
+  });
+
   test('seeded realistic panel (the bench generator), 3,000 parts', () => {
     const input = randomPanel({ placements: 3000, seed: 99, jitterFraction: 0.05 });
     const a = verify(input);
