@@ -100,6 +100,8 @@ export function naturalKey(ref: string): string | null {
 /** Sort references in natural order (compareRefs), fast for long lists: each reference's natural
  * key is made once, then plain string comparison does the work. */
 export function sortRefsNatural(refs: string[]): string[] {
+  const simple = sortSimpleRefs(refs);
+  if (simple) return simple;
   const items: { k: string; r: string }[] = new Array(refs.length);
   for (let i = 0; i < refs.length; i++) {
     const k = naturalKey(refs[i]);
@@ -109,5 +111,45 @@ export function sortRefsNatural(refs: string[]): string[] {
   items.sort((a, b) => (a.k < b.k ? -1 : a.k > b.k ? 1 : compareRefs(a.r, b.r)));
   const out: string[] = new Array(refs.length);
   for (let i = 0; i < items.length; i++) out[i] = items[i].r;
+  return out;
+}
+
+/** Letters, then a number without leading zeros: the shape of nearly every reference designator. */
+const SIMPLE_REF = /^([A-Za-z]+)(0|[1-9][0-9]{0,8})$/;
+
+/**
+ * The common case fast: when every reference is letters then a number, the natural order is the
+ * lower-cased letters in code-unit order (a shorter prefix first, as compareRefs puts a digit
+ * before a letter), then the number. One exact numeric key per reference, sorted natively. Null
+ * when a reference has another shape or two differ only in case (compareRefs decides those).
+ */
+function sortSimpleRefs(refs: string[]): string[] | null {
+  const n = refs.length;
+  const prefixOf: string[] = new Array(n);
+  const num = new Float64Array(n);
+  const prefixes = new Map<string, number>();
+  for (let i = 0; i < n; i++) {
+    const m = SIMPLE_REF.exec(refs[i]);
+    if (m === null) return null;
+    const p = m[1].toLowerCase();
+    prefixOf[i] = p;
+    num[i] = +m[2];
+    prefixes.set(p, 0);
+  }
+  const list = [...prefixes.keys()].sort();
+  if (list.length * 1e9 * n >= 2 ** 53) return null;
+  for (let r = 0; r < list.length; r++) prefixes.set(list[r], r);
+  const key = new Float64Array(n);
+  for (let i = 0; i < n; i++) key[i] = (prefixes.get(prefixOf[i])! * 1e9 + num[i]) * n + i;
+  key.sort();
+  const out: string[] = new Array(n);
+  let prev = -1;
+  for (let t = 0; t < n; t++) {
+    const i = key[t] % n;
+    const value = (key[t] - i) / n;
+    if (value === prev) return null;
+    prev = value;
+    out[t] = refs[i];
+  }
   return out;
 }

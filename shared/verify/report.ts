@@ -73,6 +73,8 @@ export function fmtMm(v: number): string {
   return Number(v.toPrecision(2)).toString();
 }
 
+const NO_BOARDS: number[] = [];
+
 /** The stable key of a finding: kind plus its sorted refs, or its boards for panel kinds. */
 export function findingKey(kind: FindingKind, refs: string[], boards: number[]): string {
   if (refs.length === 1) return kind + '|' + refs[0];
@@ -332,7 +334,7 @@ function singleDraft(
   const b = input.board[i];
   const refs = [boardRefOf(input, i)];
   const finding: Finding = {
-    key: findingKey(kind, refs, []),
+    key: findingKey(kind, refs, NO_BOARDS),
     kind,
     severity,
     side: SIDE_NAMES[input.side[i]],
@@ -362,7 +364,7 @@ function pairDraft(
   const refs = [boardRefOf(input, first), boardRefOf(input, second)];
   const boards = board[first] === board[second] ? [board[first]] : board[first] < board[second] ? [board[first], board[second]] : [board[second], board[first]];
   return {
-    key: findingKey(kind, refs, []),
+    key: findingKey(kind, refs, NO_BOARDS),
     kind,
     severity,
     side: SIDE_NAMES[input.side[i]],

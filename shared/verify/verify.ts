@@ -347,7 +347,7 @@ export const NODE_SIZE = 16;
 /** Parts per overlap query: neighbouring parts share one query (the union of their grown boxes),
  * which costs far less than one tree descent each; the few candidates are then box-tested against
  * the group's parts. */
-export const GROUP_SIZE = 16;
+export const GROUP_SIZE = 12;
 
 /**
  * The overlap queries of one side. Parts are bucketed on a grid of cells holding about

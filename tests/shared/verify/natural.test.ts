@@ -47,4 +47,19 @@ describe('natural keys agree with compareRefs', () => {
       { numRuns: 500 },
     );
   });
+
+  test('the letters-then-number fast path = sort(compareRefs), case variants included (property)', async () => {
+    const fc = (await import('fast-check')).default;
+    const { sortRefsNatural } = await import('../../../shared/verify/natural');
+    // designator shapes of the trade (R12, C3, LED1, TP40, FID2) with upper- and lower-case letters
+    const ref = fc
+      .tuple(fc.constantFrom('R', 'C', 'c', 'U', 'LED', 'Led', 'TP', 'T', 'FID', 'Q', 'q', 'J', 'JP'), fc.integer({ min: 0, max: 999_999_999 }))
+      .map(([p, k]) => `${p}${k}`);
+    fc.assert(
+      fc.property(fc.uniqueArray(ref, { maxLength: 60 }), (refs) => {
+        expect(sortRefsNatural(refs)).toEqual([...refs].sort(compareRefs));
+      }),
+      { numRuns: 500 },
+    );
+  });
 });
