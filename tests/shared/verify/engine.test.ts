@@ -171,6 +171,20 @@ describe('order and keys', () => {
     }
   });
 
+  test('the same order when board numbers are too large to pack into one numeric sort key', () => {
+    const input = crowded(7, 400);
+    const shift = 1_000_000_000;
+    const big: VerifyInput = {
+      ...input,
+      board: input.board.map((b) => b + shift),
+      boards: input.boards.map((b) => ({ ...b, board: b.board + shift })),
+    };
+    const unshift = (key: string) => key.replace(/\b1000000(\d{3})\b/g, (_, d: string) => String(Number(d)));
+    const expected = verify(input).findings.map((f) => f.key);
+    expect(expected.length).toBeGreaterThan(50);
+    expect(verify(big).findings.map((f) => unshift(f.key))).toEqual(expected);
+  });
+
   test('every finding and the result pass the shared zod schema', () => {
     const res = verify(crowded(11, 300));
     expect(res.findings.length).toBeGreaterThan(20);
