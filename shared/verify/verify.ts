@@ -699,9 +699,7 @@ function shadowsIndexed(P: Prepared, plan: QueryPlan, tree: Flatbush, sink: Find
   const ids = plan.ids;
   const sp = planShadowQueries(P, plan);
   const { who, reach, start, box } = sp;
-  const { cx, cy, hx, hy, h, R } = P;
-  const cosA = P.c;
-  const sinA = P.s;
+  const { cx, cy, h, R } = P;
   for (let q = 0; q < sp.queries; q++) {
     const hits = tree.search(box[4 * q], box[4 * q + 1], box[4 * q + 2], box[4 * q + 3]);
     const nh = hits.length;
@@ -709,14 +707,7 @@ function shadowsIndexed(P: Prepared, plan: QueryPlan, tree: Flatbush, sink: Find
     for (let t = start[q]; t < last; t++) {
       const kj = who[t];
       // j: the taller part; i: a candidate it may shadow (its centre in j's reach)
-      const j = ids[kj];
-      const hj = h[j];
-      const xj = cx[j];
-      const yj = cy[j];
-      const cj = cosA[j];
-      const sj = sinA[j];
-      const hxj = hx[j];
-      const hyj = hy[j];
+      const hj = h[ids[kj]];
       const rx0 = reach[4 * t];
       const ry0 = reach[4 * t + 1];
       const rx1 = reach[4 * t + 2];
@@ -725,26 +716,11 @@ function shadowsIndexed(P: Prepared, plan: QueryPlan, tree: Flatbush, sink: Find
         const k = hits[c];
         if (k === kj) continue;
         const i = ids[k];
-        const ri = R[i];
-        const rr = ri - TOUCH_EPS;
-        if (rr <= 0 || !(hj - h[i] > SHADOW_STEP)) continue;
+        if (R[i] <= TOUCH_EPS || !(hj - h[i] > SHADOW_STEP)) continue;
         const xi = cx[i];
         const yi = cy[i];
         if (xi < rx0 || xi > rx1 || yi < ry0 || yi > ry1) continue;
-        // as shadowPair (inlined: it runs for every candidate)
-        const dx = xi - xj;
-        const dy = yi - yj;
-        let lx = Math.abs(dx * cj + dy * sj) - hxj;
-        let ly = Math.abs(dy * cj - dx * sj) - hyj;
-        if (lx < rr && ly < rr) {
-          if (lx < 0) lx = 0;
-          if (ly < 0) ly = 0;
-          const d2 = lx * lx + ly * ly;
-          if (d2 < rr * rr) {
-            const dist = Math.sqrt(d2);
-            sink.add(K_SHADOW, i, j, 0, ri - dist, dist);
-          }
-        }
+        shadowPair(P, sink, i, ids[kj]);
       }
     }
   }
