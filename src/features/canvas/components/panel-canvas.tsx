@@ -121,9 +121,14 @@ export function PanelCanvas({
     [flush],
   );
   const idleTimer = useRef(0);
+  // On unmount the pending frame is cancelled and forgotten: React's StrictMode (development
+  // builds) unmounts and mounts again at once, and a stale frame id here would make `schedule`
+  // believe a frame is still coming, so the canvas would never draw again.
   useEffect(() => () => {
     cancelAnimationFrame(frame.current);
+    frame.current = 0;
     clearTimeout(idleTimer.current);
+    idleTimer.current = 0;
   }, []);
 
   // ---- keep refs current -----------------------------------------------------------------------
