@@ -8,7 +8,6 @@ ensure_node_modules
 DB_NAME="${PW_DB_NAME:-placewright}"
 bash scripts/db.sh ensure-db "$DB_NAME"
 export DATABASE_URL="${DATABASE_URL:-$(bash scripts/db.sh url "$DB_NAME")}"
-export NODE_ENV="${NODE_ENV:-development}"
 
 log "migrating"
 node --import tsx server/db/migrate.ts
@@ -17,9 +16,12 @@ if [ "${PW_DEMO_SEED:-1}" = 1 ]; then
   node --import tsx server/db/seed.ts
 fi
 if [ "${PW_SKIP_BUILD:-0}" != 1 ]; then
-  log "building the client"
-  npx vite build --logLevel error >&2
+  log "building the client (production bundle)"
+  bash scripts/build-client.sh production
 fi
+# The server's own mode (development: no SESSION_SECRET needed on a workstation). It is exported
+# only now: the client bundle above is always built for production.
+export NODE_ENV="${NODE_ENV:-development}"
 
 PORT="${PORT:-3000}"
 cat >&2 <<MSG

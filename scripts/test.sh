@@ -28,7 +28,7 @@ check() { # name, command...
 check "type check (tsc --noEmit)" npx tsc --noEmit -p tsconfig.json
 
 log "building the client for the browser tests"
-npx vite build --logLevel error >&2 || { failed=$((failed + 1)); log "FAILED: client build"; }
+bash scripts/build-client.sh production || { failed=$((failed + 1)); log "FAILED: client build"; }
 
 mkdir -p .data
 # Two vitest runs: unit and integration first, then the browser tests alone, so that Chromium

@@ -67,7 +67,6 @@ beforeAll(async () => {
   await checkSubmitApprove(revB);
 }, 120_000);
 afterAll(async () => {
-  await h?.ctx.app.locals.services.checks.close();
   await h?.close();
 });
 

@@ -59,8 +59,11 @@ export async function makeUser(ds: DataSource, roles: Role[], over: Partial<User
   );
 }
 
+/** The app in this process, or the base URL of a server process (the browser tests'). */
+export type AgentTarget = { ds: DataSource; app: TestContext['app'] | string };
+
 /** A supertest agent with a CSRF token; `signIn` logs it in. */
-export async function agent(ctx: TestContext) {
+export async function agent(ctx: Pick<AgentTarget, 'app'>) {
   const a = request.agent(ctx.app);
   const tokenRes = await a.get('/api/auth/csrf').expect(200);
   let token: string = tokenRes.body.token;
@@ -77,7 +80,7 @@ export async function agent(ctx: TestContext) {
   };
 }
 
-export async function signedInAgent(ctx: TestContext, roles: Role[]) {
+export async function signedInAgent(ctx: AgentTarget, roles: Role[]) {
   const user = await makeUser(ctx.ds, roles);
   const ag = await agent(ctx);
   const res = await ag.signIn(user);
