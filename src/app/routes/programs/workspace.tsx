@@ -3,32 +3,10 @@ import type { RevisionDetail } from '../../../../shared/schemas/program.schema';
 import { ErrorPanel, ProgressBar } from '../../../components/ui/misc';
 import { useRevision } from '../../../features/programs/api/programs';
 import { StateBadge } from '../../../features/programs/components/state-badge';
+import { STAGES, stageMarks, type StageState } from './stage-marks';
 import { Link } from 'react-router-dom';
 
-export const STAGES = [
-  { path: 'import', label: 'Import' },
-  { path: 'panelize', label: 'Panelize' },
-  { path: 'align', label: 'Align' },
-  { path: 'assign', label: 'Assign' },
-  { path: 'verify', label: 'Verify' },
-  { path: 'release', label: 'Release' },
-] as const;
-
-type StageState = 'done' | 'todo' | 'attention';
-
-export function stageStates(r: RevisionDetail): Record<(typeof STAGES)[number]['path'], StageState> {
-  const checked = r.findingsSummary !== null;
-  const waived = new Set(r.waivers.map((w) => w.findingKey));
-  const openErrors = (r.findings ?? []).filter((f) => f.severity === 'error' && !waived.has(f.key)).length;
-  return {
-    import: r.imported ? 'done' : 'todo',
-    panelize: r.settings.board && r.settings.panel ? 'done' : 'todo',
-    align: r.settings.fiducials.length > 0 ? 'done' : 'todo',
-    assign: r.imported ? 'done' : 'todo',
-    verify: !checked ? 'todo' : openErrors > 0 ? 'attention' : 'done',
-    release: r.state === 'released' ? 'done' : r.state === 'in-review' ? 'attention' : 'todo',
-  };
-}
+export { STAGES };
 
 export interface WorkspaceContext {
   revision: RevisionDetail;
@@ -38,7 +16,9 @@ export function useWorkspace() {
   return useOutletContext<WorkspaceContext>();
 }
 
-const MARK: Record<StageState, string> = { done: '✓', todo: '○', attention: '!' };
+const MARK: Record<StageState, string> = { done: '✓', todo: '○', attention: '!', waiting: '…' };
+const MARK_WORD: Record<StageState, string> = { done: 'done', todo: 'to do', attention: 'needs attention', waiting: 'waiting' };
+const MARK_CLASS: Record<StageState, string> = { done: 'text-mask-500', todo: 'text-ink-400', attention: 'text-sev-error', waiting: 'text-copper-600' };
 
 export default function WorkspaceRoute() {
   const { revisionId = '' } = useParams();
@@ -46,7 +26,7 @@ export default function WorkspaceRoute() {
   if (rev.isPending) return <ProgressBar label="Loading the revision" />;
   if (rev.isError) return <ErrorPanel error={rev.error} />;
   const r = rev.data;
-  const states = stageStates(r);
+  const marks = stageMarks(r);
   return (
     <div className="max-w-7xl">
       <div className="mb-4 flex flex-wrap items-baseline gap-3 border-b border-ink-200 pb-3">
@@ -72,7 +52,7 @@ export default function WorkspaceRoute() {
               >
                 <span className="num text-xs text-ink-400">{i + 1}</span>
                 {s.label}
-                <span aria-label={states[s.path]} className={`text-xs ${states[s.path] === 'done' ? 'text-mask-500' : states[s.path] === 'attention' ? 'text-sev-error' : 'text-ink-400'}`}>{MARK[states[s.path]]}</span>
+                <span aria-label={`${MARK_WORD[marks[s.path].state]}: ${marks[s.path].why}`} title={marks[s.path].why} data-mark={marks[s.path].state} className={`text-xs ${MARK_CLASS[marks[s.path].state]}`}>{MARK[marks[s.path].state]}</span>
               </NavLink>
             </li>
           ))}
