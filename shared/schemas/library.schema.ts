@@ -307,3 +307,29 @@ export type CsvPreview = z.infer<typeof csvPreviewSchema>;
 export const csvCommitResultSchema = z.object({ created: z.number().int(), updated: z.number().int() });
 /** The CSV columns, in order (a header row names them; case and spaces are ignored). */
 export const CSV_COLUMNS = ['name', 'family', 'length', 'width', 'height', 'offsetX', 'offsetY', 'courtyard', 'rotationOffset', 'polarised', 'overhang', 'nozzles', 'vision', 'tapeWidth', 'tapePitch', 'feeder', 'padLength', 'padWidth', 'padCount', 'aliases', 'notes'] as const;
+
+/** Where a package is used: every program revision in work or released whose parts it places. */
+export const packageUsageRevisionSchema = z.object({
+  programId: z.string(),
+  programName: z.string(),
+  revisionId: z.string(),
+  label: z.string(),
+  state: z.enum(['draft', 'in-review', 'released']),
+  /** references placed with this package (matched by footprint, or by an override) */
+  parts: z.number().int().nonnegative(),
+  /** of those, the ones that get it through an override */
+  viaOverride: z.number().int().nonnegative(),
+  /** the first references, in natural order */
+  refs: z.array(z.string()),
+  /** true for a revision in work: a change reaches it at its next check (and a revision in review
+   * is checked again before release); released revisions keep the lists they were released with */
+  affected: z.boolean(),
+});
+export const packageUsageSchema = z.object({
+  packageId: z.string(),
+  packageName: z.string(),
+  revisions: z.array(packageUsageRevisionSchema),
+  inWork: z.number().int().nonnegative(),
+  released: z.number().int().nonnegative(),
+});
+export type PackageUsage = z.infer<typeof packageUsageSchema>;

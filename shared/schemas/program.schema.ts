@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { findingSchema, findingsSummarySchema } from './finding.schema';
+import { findingKindSchema, findingSchema, findingsSummarySchema } from './finding.schema';
 import { boardOutlineSchema, fiducialSchema, importOptionsSchema, limitsSchema, machineSchema, panelSchema } from './job.schema';
 
 export const REVISION_STATES = ['draft', 'in-review', 'released', 'superseded', 'withdrawn'] as const;
@@ -68,9 +68,14 @@ export const updateOverridesInputSchema = z.object({
   version: z.number().int().min(1),
 });
 
+export const waiverScopeSchema = z.enum(['finding', 'every-board']);
+export type WaiverScopeName = z.infer<typeof waiverScopeSchema>;
+
 export const waiveInputSchema = z.object({
   key: z.string().min(1).max(500),
   reason: z.string().trim().min(5, 'Say why this finding is acceptable (at least 5 characters)').max(1000),
+  /** 'every-board': one decision for this finding's kind and refs on every board of the panel */
+  scope: waiverScopeSchema.default('finding'),
 });
 
 export const reviewDecisionInputSchema = z.object({
@@ -161,11 +166,15 @@ export type ProgramDto = z.infer<typeof programSchema>;
 
 export const waiverSchema = z.object({
   id: z.string(),
+  /** a finding's key; for scope 'every-board', the kind and refs with `*` for the board */
   findingKey: z.string(),
+  scope: waiverScopeSchema.default('finding'),
   kind: z.string(),
   reason: z.string(),
   userEmail: z.string(),
   at: z.string(),
+  /** findings of the last check this waiver covers (one for a finding waiver that still applies) */
+  covers: z.number().int().nonnegative().default(0),
 });
 export type WaiverDto = z.infer<typeof waiverSchema>;
 
@@ -247,5 +256,83 @@ export const apiTokenSchema = z.object({
   revokedAt: z.string().nullable(),
 });
 export type ApiTokenDto = z.infer<typeof apiTokenSchema>;
+
+/** One waiver as the reviewer reads it: whose decision, why, when, and how many findings it covers. */
+export const reviewWaiverSchema = z.object({
+  id: z.string(),
+  scope: waiverScopeSchema,
+  kind: findingKindSchema,
+  findingKey: z.string(),
+  /** "BOARD:REF" for a finding waiver; bare references for an every-board waiver */
+  refs: z.array(z.string()),
+  reason: z.string(),
+  userEmail: z.string(),
+  userName: z.string().nullable(),
+  at: z.string(),
+  covers: z.number().int().nonnegative(),
+});
+export type ReviewWaiver = z.infer<typeof reviewWaiverSchema>;
+
+/** Differences in the imported parts against the last released revision (by reference). */
+export const revisionChangesSchema = z.object({
+  /** the revision compared with; null when none of the program was released before */
+  since: z.object({ revisionId: z.string(), label: z.string(), releasedAt: z.string().nullable() }).nullable(),
+  added: z.array(z.string()),
+  removed: z.array(z.string()),
+  /** position, rotation or side changed */
+  moved: z.array(z.string()),
+  /** footprint or value changed */
+  changed: z.array(z.string()),
+  /** settings sections that differ: board, panel, fiducials, transform, limits, machine, import */
+  settings: z.array(z.string()),
+  /** references whose override was added, removed or changed */
+  overrides: z.array(z.string()),
+});
+export type RevisionChanges = z.infer<typeof revisionChangesSchema>;
+
+/** What a reviewer approves: findings by kind with their waivers, the overrides, the changes. */
+export const reviewSummarySchema = z.object({
+  revisionId: z.string(),
+  programId: z.string(),
+  programName: z.string(),
+  label: z.string(),
+  state: revisionStateSchema,
+  checkedAt: z.string().nullable(),
+  placements: z.number().int().nonnegative(),
+  /** null while the revision is not checked since its last change */
+  findings: z
+    .object({
+      total: z.number().int().nonnegative(),
+      errors: z.number().int().nonnegative(),
+      warnings: z.number().int().nonnegative(),
+      /** findings a waiver covers */
+      waived: z.number().int().nonnegative(),
+      /** error findings no waiver covers: release needs none */
+      openErrors: z.number().int().nonnegative(),
+    })
+    .nullable(),
+  byKind: z.array(
+    z.object({
+      kind: findingKindSchema,
+      severity: z.enum(['error', 'warning']),
+      count: z.number().int().nonnegative(),
+      waived: z.number().int().nonnegative(),
+      waivers: z.array(reviewWaiverSchema),
+    }),
+  ),
+  /** waivers whose findings are gone on the last check (kept: a later check may bring them back) */
+  unusedWaivers: z.array(reviewWaiverSchema),
+  overrides: z.array(
+    z.object({
+      ref: z.string(),
+      package: z.string().nullable(),
+      nozzle: z.string().nullable(),
+      vision: z.string().nullable(),
+      reason: z.string(),
+    }),
+  ),
+  changes: revisionChangesSchema,
+});
+export type ReviewSummaryDto = z.infer<typeof reviewSummarySchema>;
 
 export { findingSchema, findingsSummarySchema };

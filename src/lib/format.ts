@@ -19,3 +19,14 @@ export function relativeTime(iso: string, now = Date.now()): string {
   if (s < 86400) return `${Math.floor(s / 3600)} h ago`;
   return dateTime(iso);
 }
+
+/**
+ * File sizes as people read them, in decimal units (SI prefixes: 1 kB = 1000 bytes, 1 MB = 1000 kB):
+ * 812 B, 41.2 kB, 1.3 MB. The one formatter for sizes on every page.
+ */
+export function fileSize(bytes: number): string {
+  if (!Number.isFinite(bytes) || bytes < 0) return '—';
+  if (bytes < 1000) return `${bytes} B`;
+  if (bytes < 999_950) return `${(bytes / 1000).toFixed(1)} kB`;
+  return `${(bytes / 1_000_000).toFixed(1)} MB`;
+}

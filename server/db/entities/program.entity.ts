@@ -123,8 +123,13 @@ export class RevisionWaiver {
   @Column({ name: 'revision_id', type: 'uuid' })
   revisionId!: string;
 
+  /** a finding's key, or for scope 'every-board' its kind and refs with `*` for the board */
   @Column({ name: 'finding_key', type: 'varchar', length: 500 })
   findingKey!: string;
+
+  /** 'finding' (that one finding) or 'every-board' (the same kind and refs on every board) */
+  @Column({ type: 'varchar', length: 16, default: 'finding' })
+  scope!: string;
 
   @Column({ type: 'varchar', length: 32 })
   kind!: string;

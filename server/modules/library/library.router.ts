@@ -30,6 +30,7 @@ import type { Mailer } from '../mail/mailer';
 import type { UserService } from '../users/user.service';
 import type { DataSource } from 'typeorm';
 import { LibraryService } from './library.service';
+import { packageUsage } from './package-usage.service';
 import { ProposalService } from './proposals.service';
 import { UnmatchedService } from './unmatched.service';
 
@@ -60,6 +61,8 @@ export function registerLibraryRoutes(api: ApiRoutes, deps: LibraryDeps) {
   api.get('/library/packages', READ, async (_req, res) => res.json({ items: await library.listPackages() }));
   api.post('/library/packages', EDIT, validate(createPackageInputSchema), async (req, res) => res.status(201).json(await library.createPackage(req.body, actorOf(req), ip(req))));
   api.get('/library/packages/:id', READ, params, async (req, res) => res.json(await library.getPackage(id(req))));
+  // Which programs a package change reaches (shown before saving one): not for operators.
+  api.get('/library/packages/:id/usage', ['librarian', 'engineer'], params, async (req, res) => res.json(await packageUsage(deps.ds, id(req))));
   api.put('/library/packages/:id', EDIT, params, validate(updatePackageInputSchema), async (req, res) => res.json(await library.updatePackage(id(req), req.body, actorOf(req), ip(req))));
   api.delete('/library/packages/:id', EDIT, params, validate(deleteInputSchema), async (req, res) => {
     await library.deletePackage(id(req), req.body.version, actorOf(req), ip(req));

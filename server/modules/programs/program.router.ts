@@ -120,7 +120,11 @@ export function registerProgramRoutes(api: ApiRoutes, programs: ProgramService, 
   });
 
   api.post('/revisions/:id/waivers', eng, validate(uuidParamSchema, 'params'), validate(waiveInputSchema), async (req, res) => {
-    res.status(201).json(await programs.waive(id(req), req.body.key, req.body.reason, userOf(req), ip(req)));
+    res.status(201).json(await programs.waive(id(req), req.body.key, req.body.reason, userOf(req), ip(req), req.body.scope));
+  });
+
+  api.get('/revisions/:id/review-summary', eng, validate(uuidParamSchema, 'params'), async (req, res) => {
+    res.json(await programs.reviewSummary(id(req)));
   });
 
   api.delete('/revisions/:id/waivers/:waiverId', eng, validate(z.object({ id: z.string().uuid(), waiverId: z.string().uuid() }), 'params'), async (req, res) => {

@@ -7,6 +7,7 @@ import { runResultToJson, type RunResultJson } from '../../../shared/pipeline/se
 import { writePlacementListCsv, writePlacementListJson } from '../../../shared/placement-list';
 import type { Finding } from '../../../shared/schemas/finding.schema';
 import type { LibraryFile } from '../../../shared/schemas/library-file.schema';
+import { everyBoardKey, everyBoardKeyOfKey, waiverLookup } from '../../../shared/review/waivers';
 import {
   revisionSettingsSchema,
   type CommentDto,
@@ -15,6 +16,7 @@ import {
   type ProgramDto,
   type ReleaseFileDto,
   type RevisionDetail,
+  type ReviewSummaryDto,
   type RevisionSettings,
   type RevisionSummary,
   type WaiverDto,
@@ -27,6 +29,7 @@ import type { Mailer } from '../mail/mailer';
 import type { UserService } from '../users/user.service';
 import type { CheckPool } from './check-pool';
 import { CENTROID_NAME_FALLBACK, importFile, runSide, sidesWithParts, type EngineInput } from './engine';
+import { buildReviewSummary, revisionChanges } from './review-summary';
 
 /** Where programs get the shared package library (the library module provides it). */
 export interface LibrarySource {
@@ -108,7 +111,9 @@ export class ProgramService {
       `SELECT r.id, count(f.value)::int AS n
          FROM program_revisions r
          LEFT JOIN LATERAL jsonb_array_elements(COALESCE(r.findings, '[]'::jsonb)) f ON f.value->>'severity' = 'error'
-              AND NOT EXISTS (SELECT 1 FROM revision_waivers w WHERE w.revision_id = r.id AND w.finding_key = f.value->>'key')
+              AND NOT EXISTS (SELECT 1 FROM revision_waivers w WHERE w.revision_id = r.id AND (w.finding_key = f.value->>'key'
+                   OR (w.scope = 'every-board' AND jsonb_array_length(f.value->'boards') = 1
+                       AND w.finding_key = regexp_replace(f.value->>'key', '\\|\\d+:', '|*:', 'g'))))
         WHERE r.id = ANY($1) GROUP BY r.id`,
       [ids],
     );
@@ -212,7 +217,7 @@ export class ProgramService {
       overrides: r.overrides as Record<string, Override>,
       findings: (r.findings as Finding[] | null) ?? null,
       findingsSummary: (r.findingsSummary as RevisionDetail['findingsSummary']) ?? null,
-      waivers: waivers.map(waiverDto),
+      waivers: waiverDtos(waivers, (r.findings as Finding[] | null) ?? []),
       comments: comments.map(commentDto),
       releaseFiles: files.map((f) => releaseFileDto(f, sizes.find((s) => s.id === f.id)?.n ?? 0)),
       reviewComment: r.reviewComment,
@@ -446,18 +451,66 @@ export class ProgramService {
     });
   }
 
-  async waive(revisionId: string, key: string, reason: string, user: ServiceUser, ip: string | null): Promise<WaiverDto> {
+  /**
+   * Waives one finding, or (scope 'every-board') the finding's kind and refs on every board: one
+   * decision that also covers boards added later. Waivers given before on single boards of that
+   * kind and refs are folded into it (the audit keeps their reasons).
+   */
+  async waive(revisionId: string, key: string, reason: string, user: ServiceUser, ip: string | null, scope: 'finding' | 'every-board' = 'finding'): Promise<WaiverDto> {
     return this.ds.transaction(async (m) => {
       const r = await this.getRevisionEntity(revisionId, m, true);
       this.assertEditable(r, 'given waivers');
-      const finding = ((r.findings as Finding[] | null) ?? []).find((f) => f.key === key);
+      const findings = (r.findings as Finding[] | null) ?? [];
+      const finding = findings.find((f) => f.key === key);
       if (!finding) throw new NotFoundError('That finding (run the checks again: it may be fixed)');
       const repo = m.getRepository(RevisionWaiver);
-      if (await repo.existsBy({ revisionId, findingKey: key })) throw new ConflictError('This finding is already waived.');
-      const w = await repo.save(repo.create({ revisionId, findingKey: key, kind: finding.kind, reason, userId: user.id, userEmail: user.email }));
-      await this.deps.audit.record(user, 'finding.waive', await this.label(r, m), { key, reason }, ip, m);
-      return waiverDto(w);
+      const existing = await repo.findBy({ revisionId });
+      const covering = waiverLookup(existing)(finding);
+      const label = await this.label(r, m);
+      if (scope === 'finding') {
+        if (covering) throw new ConflictError(covering.scope === 'every-board' ? 'This finding is already waived on every board.' : 'This finding is already waived.');
+        const w = await repo.save(repo.create({ revisionId, findingKey: key, scope: 'finding', kind: finding.kind, reason, userId: user.id, userEmail: user.email }));
+        await this.deps.audit.record(user, 'finding.waive', label, { key, reason }, ip, m);
+        return waiverDtos([w], findings)[0];
+      }
+      const pattern = everyBoardKey(finding);
+      if (pattern === null) {
+        throw new BadRequestError(`This ${finding.kind} finding is not within one board (it involves ${finding.refs.length ? 'parts of several boards' : finding.boards.length ? 'whole boards' : 'the panel'}), so it does not repeat per board: waive it on its own.`, [{ path: 'scope', message: 'Only for findings within one board' }]);
+      }
+      if (existing.some((w) => w.scope === 'every-board' && w.findingKey === pattern)) throw new ConflictError('This finding is already waived on every board.');
+      const instances = findings.filter((f) => everyBoardKey(f) === pattern).length;
+      const folded = existing.filter((w) => w.scope !== 'every-board' && everyBoardKeyOfKey(w.findingKey) === pattern);
+      if (folded.length) await repo.delete({ id: In(folded.map((w) => w.id)) });
+      const w = await repo.save(repo.create({ revisionId, findingKey: pattern, scope: 'every-board', kind: finding.kind, reason, userId: user.id, userEmail: user.email }));
+      await this.deps.audit.record(
+        user,
+        'finding.waive',
+        label,
+        { key: pattern, scope: 'every-board', reason, covers: instances, replaced: folded.map((x) => ({ key: x.findingKey, reason: x.reason, by: x.userEmail })) },
+        ip,
+        m,
+      );
+      return waiverDtos([w], findings)[0];
     });
+  }
+
+  /** The review summary: findings by kind with their waivers, the overrides, the changes since the last release. */
+  async reviewSummary(revisionId: string): Promise<ReviewSummaryDto> {
+    const r = await this.getRevisionEntity(revisionId);
+    const program = await this.ds.getRepository(Program).findOneByOrFail({ id: r.programId });
+    const waivers = await this.ds.getRepository(RevisionWaiver).find({ where: { revisionId }, order: { at: 'ASC' } });
+    // the last revision released before this one (this one's own release does not count)
+    const base = await this.ds
+      .getRepository(ProgramRevision)
+      .createQueryBuilder('b')
+      .select(['b.id', 'b.label', 'b.releasedAt', 'b.imported', 'b.settings', 'b.overrides'])
+      .where('b.program_id = :p AND b.id <> :id AND b.released_at IS NOT NULL', { p: r.programId, id: r.id })
+      .andWhere(r.releasedAt ? 'b.released_at < :at' : 'TRUE', { at: r.releasedAt })
+      .orderBy('b.released_at', 'DESC')
+      .limit(1)
+      .getOne();
+    const ref = await this.userRefs(waivers.map((w) => w.userId));
+    return buildReviewSummary(r, program, waivers, (id) => ref(id)?.name ?? null, revisionChanges(r, base ?? null));
   }
 
   async unwaive(revisionId: string, waiverId: string, user: ServiceUser, ip: string | null) {
@@ -472,8 +525,8 @@ export class ProgramService {
   }
 
   private async blockingFindings(revisionId: string, findings: Finding[], m: EntityManager): Promise<Finding[]> {
-    const waived = new Set((await m.getRepository(RevisionWaiver).findBy({ revisionId })).map((w) => w.findingKey));
-    return findings.filter((f) => f.severity === 'error' && !waived.has(f.key));
+    const waiverOf = waiverLookup(await m.getRepository(RevisionWaiver).findBy({ revisionId }));
+    return findings.filter((f) => f.severity === 'error' && !waiverOf(f));
   }
 
   async submit(revisionId: string, user: ServiceUser, ip: string | null) {
@@ -640,8 +693,24 @@ function unmatchedFootprints(imported: ImportResult, library: LibraryFile): { fo
   return [...counts].map(([footprint, count]) => ({ footprint, count }));
 }
 
-export function waiverDto(w: RevisionWaiver): WaiverDto {
-  return { id: w.id, findingKey: w.findingKey, kind: w.kind, reason: w.reason, userEmail: w.userEmail, at: w.at.toISOString() };
+/** Waivers as sent, each with the number of `findings` it covers. */
+export function waiverDtos(waivers: readonly RevisionWaiver[], findings: readonly Finding[]): WaiverDto[] {
+  const waiverOf = waiverLookup(waivers);
+  const covers = new Map<RevisionWaiver, number>();
+  for (const f of findings) {
+    const w = waiverOf(f);
+    if (w) covers.set(w, (covers.get(w) ?? 0) + 1);
+  }
+  return waivers.map((w) => ({
+    id: w.id,
+    findingKey: w.findingKey,
+    scope: w.scope === 'every-board' ? 'every-board' : 'finding',
+    kind: w.kind,
+    reason: w.reason,
+    userEmail: w.userEmail,
+    at: w.at.toISOString(),
+    covers: covers.get(w) ?? 0,
+  }));
 }
 
 export function commentDto(c: RevisionComment): CommentDto {

@@ -6,8 +6,8 @@ import { Button } from '../../../../components/ui/button';
 import { SelectField } from '../../../../components/ui/field';
 import { Badge, ProgressBar } from '../../../../components/ui/misc';
 import { useCommitImport, usePreviewImport, type ImportPreview } from '../../../../features/programs/api/programs';
-import { ApiError } from '../../../../lib/api-client';
-import { mm, deg } from '../../../../lib/format';
+import { deg, fileSize, mm } from '../../../../lib/format';
+import { describeImportProblem, isUnitsMessage, UNITS_HELP, withoutFlags } from './import-problems';
 import { useWorkspace } from '../workspace';
 
 type ImportOptions = NonNullable<RevisionSettingsInput['import']>;
@@ -22,42 +22,44 @@ const BOTTOM_HELP: Record<string, string> = {
   'mirror-180': 'The file gives mirrored angles; bottom rotation = 180° − θ.',
 };
 
-function ProblemBox({ error }: { error: unknown }) {
+function ProblemBox({ error, fileName }: { error: unknown; fileName?: string | null }) {
   if (!error) return null;
-  const p = error instanceof ApiError ? error.problem : null;
+  const d = describeImportProblem(error, fileName);
   return (
-    <div role="alert" className="rounded border border-sev-error/40 bg-sev-error/5 p-3 text-sm">
-      <p className="font-medium text-sev-error">{p?.title ?? 'Error'}</p>
-      <p className="mt-1 text-ink-800">{error instanceof Error ? error.message : String(error)}</p>
-      {p && p.errors.length > 0 && (
+    <div role="alert" aria-label={d.title} className="rounded border border-sev-error/40 bg-sev-error/5 p-3 text-sm">
+      <p className="font-medium text-sev-error">{d.title}</p>
+      <p className="mt-1 text-ink-800">{d.message}</p>
+      {d.details.length > 0 && (
         <ul className="mt-2 list-disc pl-5 text-xs text-ink-700">
-          {p.errors.map((e, i) => (
+          {d.details.map((e, i) => (
             <li key={i}>
               <span className="num">{e.path}</span>: {e.message}
             </li>
           ))}
         </ul>
       )}
-      <p className="mt-2 text-xs text-ink-500">Fix the file or the options below and preview again. Nothing was saved.</p>
+      {!d.needsUnits && <p className="mt-2 text-xs text-ink-500">Fix the file or the options on the left and preview again. Nothing was saved.</p>}
     </div>
   );
 }
 
 function RowErrors({ p }: { p: ImportPreview }) {
-  if (p.rowErrors.length === 0) return null;
+  // a units problem is the whole file's, answered by the Units control (shown above the table)
+  const rows = p.rowErrors.filter((e) => !isUnitsMessage(e.message));
+  if (rows.length === 0) return null;
   return (
     <section role="alert" aria-label="Row errors" className="rounded border border-sev-error/40 bg-sev-error/5 p-3 text-sm">
       <p className="font-medium text-sev-error">
-        {p.rowErrors.length}{p.truncated ? '+' : ''} row{p.rowErrors.length === 1 ? '' : 's'} cannot be read — fix {p.rowErrors.length === 1 ? 'it' : 'them'} in the file (or the column mapping) and choose it again. Nothing is imported while any remain.
+        {rows.length}{p.truncated ? '+' : ''} row{rows.length === 1 ? '' : 's'} cannot be read — fix {rows.length === 1 ? 'it' : 'them'} in the file (or the column mapping) and choose it again. Nothing is imported while any remain.
       </p>
       <table className="mt-2 w-full text-xs">
         <thead className="text-left text-ink-500"><tr><th className="py-1 pr-3 font-medium">Line</th><th className="pr-3 font-medium">Column</th><th className="font-medium">Problem</th></tr></thead>
         <tbody>
-          {p.rowErrors.map((e, i) => (
+          {rows.map((e, i) => (
             <tr key={i} className="border-t border-sev-error/20">
-              <td className="num py-1 pr-3">{e.line}</td>
+              <td className="num py-1 pr-3">{e.line > 0 ? e.line : '—'}</td>
               <td className="num pr-3">{e.column ?? '—'}</td>
-              <td>{e.message}</td>
+              <td>{withoutFlags(e.message)}</td>
             </tr>
           ))}
         </tbody>
@@ -72,7 +74,7 @@ function Dialect({ p }: { p: ImportPreview }) {
   const delim = d.delimiter === '\t' ? 'tab' : d.delimiter === ',' ? 'comma' : 'semicolon';
   return (
     <dl className="grid grid-cols-[9rem_1fr] gap-x-4 gap-y-1 text-sm">
-      <dt className="text-ink-500">File</dt><dd><span className="num">{p.fileName}</span> · <span className="num">{(p.bytes / 1024).toFixed(1)} KB</span></dd>
+      <dt className="text-ink-500">File</dt><dd><span className="num">{p.fileName}</span> · <span className="num">{fileSize(p.bytes)}</span></dd>
       <dt className="text-ink-500">SHA-256</dt><dd className="num break-all text-xs">{p.sha256}</dd>
       <dt className="text-ink-500">Delimiter</dt><dd>{delim}{d.decimalComma ? ', decimal comma' : ''}</dd>
       <dt className="text-ink-500">Header row</dt><dd>line <span className="num">{d.headerLine}</span>{d.bom ? ' · UTF-8 BOM' : ''} · {d.lineEnding === '\r\n' ? 'CRLF' : d.lineEnding === '\r' ? 'CR' : 'LF'} line ends</dd>
@@ -90,6 +92,12 @@ export default function ImportStage() {
   const preview = usePreviewImport(r.id);
   const commit = useCommitImport(r.id);
   const busy = preview.isPending || commit.isPending;
+  // the file's units cannot be told: the Units control is where the answer goes
+  const needsUnits =
+    !options.units &&
+    ((!!preview.error && describeImportProblem(preview.error).needsUnits) ||
+      (!!commit.error && describeImportProblem(commit.error).needsUnits) ||
+      !!preview.data?.rowErrors.some((e) => isUnitsMessage(e.message)));
 
   const runPreview = (f: File | null = file, o: ImportOptions = options) => {
     if (!f) return;
@@ -134,7 +142,7 @@ export default function ImportStage() {
               />
               <p className="text-xs text-ink-500">CSV or text, up to 20 MB. Comma, semicolon or tab; decimal point or comma; mm, mil or inch.</p>
             </div>
-            <SelectField label="Units" value={options.units ?? ''} onChange={(e) => { const o = { ...options, units: (e.target.value || undefined) as ImportOptions['units'] }; setOptions(o); runPreview(file, o); }}>
+            <SelectField label="Units" error={needsUnits ? 'Choose the units of this file: it does not say them.' : undefined} value={options.units ?? ''} onChange={(e) => { const o = { ...options, units: (e.target.value || undefined) as ImportOptions['units'] }; setOptions(o); runPreview(file, o); }}>
               <option value="">From the header or the values</option>
               <option value="mm">Millimetres (mm)</option>
               <option value="mil">Thousandths of an inch (mil)</option>
@@ -166,7 +174,7 @@ export default function ImportStage() {
             >
               {commit.isPending ? 'Importing…' : r.imported ? 'Replace the import with this file' : 'Import this file'}
             </Button>
-            <ProblemBox error={commit.error} />
+            <ProblemBox error={commit.error} fileName={file?.name} />
           </>
         ) : (
           <p className="text-sm text-ink-500">This revision is {r.state}; its import cannot change.</p>
@@ -176,15 +184,22 @@ export default function ImportStage() {
       <section aria-labelledby="preview-h" className="min-w-0">
         <h2 id="preview-h" className="mb-3 font-semibold">Preview</h2>
         {preview.error ? (
-          <ProblemBox error={preview.error} />
+          <ProblemBox error={preview.error} fileName={file?.name} />
         ) : !preview.data ? (
           <p className="rounded border border-dashed border-ink-300 bg-white p-6 text-sm text-ink-500">
             Choose a file: Placewright detects its delimiter, header row, columns and units and shows the rows as it read them before anything is saved.
           </p>
         ) : (
           <div className="flex flex-col gap-4">
+            {needsUnits && (
+              <div role="alert" aria-label="Choose the units" className="rounded border border-sev-error/40 bg-sev-error/5 p-3 text-sm">
+                <p className="font-medium text-sev-error">Choose the units</p>
+                <p className="mt-1 text-ink-800">{UNITS_HELP}</p>
+              </div>
+            )}
             <RowErrors p={preview.data} />
             <Dialect p={preview.data} />
+            {preview.data.headers.length > 0 && (
             <div>
               <h3 className="mb-2 text-sm font-semibold">Column mapping</h3>
               <div className="grid grid-cols-3 gap-2">
@@ -196,6 +211,7 @@ export default function ImportStage() {
                 ))}
               </div>
             </div>
+            )}
             {preview.data.warnings.length > 0 && (
               <ul aria-label="Warnings" className="rounded border border-sev-warning/50 bg-sev-warning/10 p-3 text-sm">
                 {preview.data.warnings.map((w, i) => (
@@ -203,6 +219,7 @@ export default function ImportStage() {
                 ))}
               </ul>
             )}
+            {preview.data.first.length > 0 && (
             <div className="overflow-auto rounded border border-ink-200 bg-white">
               <table aria-label="First rows as read" className="w-full text-sm">
                 <thead className="bg-ink-100 text-left text-xs text-ink-600">
@@ -227,6 +244,7 @@ export default function ImportStage() {
               </table>
               {preview.data.rows > preview.data.first.length && <p className="px-2 py-1 text-xs text-ink-500">…and {preview.data.rows - preview.data.first.length} more rows.</p>}
             </div>
+            )}
           </div>
         )}
       </section>
