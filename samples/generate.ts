@@ -1,6 +1,6 @@
 // Generates the demo samples (Harrow Creek Instruments, an invented scenario):
 //   samples/library.json, samples/weather-station/{weather-ctl.csv,job.json},
-//   samples/led-strip/{led-strip.csv,job.json}
+//   samples/led-strip/{led-strip.csv,job.json,job-overrides.json}
 // Run: node --import tsx samples/generate.ts   (deterministic: a seeded PRNG; the outputs are committed)
 // Parts are laid out with a self-check so the samples hold no body or courtyard overlap, no part
 // off its board, no fiducial clearance violation and no nozzle shadow.
@@ -304,4 +304,16 @@ write('weather-station/job.json', JSON.stringify(ws.job, null, 2) + '\n');
 const led = ledStrip();
 write('led-strip/led-strip.csv', '\uFEFF' + led.csv);
 write('led-strip/job.json', JSON.stringify(led.job, null, 2) + '\n');
+// The same board with one override of each kind (names written in other letter cases on purpose:
+// the engine compares library names without case, see shared/library/README.md).
+const ledOverrides = {
+  ...led.job,
+  program: 'led-strip-substitutes',
+  overrides: {
+    R3: { package: 'R0603', reason: 'Buyer substituted a 0603 part for R3 (270R); the pads take either size.' },
+    Q1: { nozzle: 'n10', reason: 'The N07 tip on line B is worn; N10 still fits inside the SOT-23 body.' },
+    D1: { vision: 'Chip-Medium', reason: 'The green lens of D1 reflects under the chip-small lighting; centre it on the body outline.' },
+  },
+};
+write('led-strip/job-overrides.json', JSON.stringify(ledOverrides, null, 2) + '\n');
 process.stderr.write(`weather-station: ${ws.count} parts; led-strip: 14 parts\n`);

@@ -1,11 +1,7 @@
 // `cli check JOB.json [--side top|bottom|both] [--out FILE]` (CLI.md): run the job for the side(s)
 // and print the findings as JSON. Exit 1 when an error-severity finding remains.
-import { EngineInputError } from '../../shared/pipeline/errors';
-import { runJob } from '../../shared/pipeline/run-job';
-import type { RunResult, Side } from '../../shared/pipeline/types';
-import { verifyInputFromRuns } from '../../shared/verify/from-job';
-import { verify, VerifyInputError } from '../../shared/verify/verify';
-import { emit, EXIT_FINDINGS, EXIT_OK, loadJob, one, onePositional, parseArgs, warn, type Command } from './common';
+import type { Side } from '../../shared/pipeline/types';
+import { emit, EXIT_FINDINGS, EXIT_OK, loadJob, one, onePositional, parseArgs, runLoaded, warn, type Command } from './common';
 
 const spec = { side: { values: ['top', 'bottom', 'both'] }, out: {} } as const;
 
@@ -42,33 +38,10 @@ Exit: 0 no error finding; 1 at least one error-severity finding; 2 bad input or 
     const choice = (one(args, 'side') ?? 'both') as Side | 'both';
     const sides: Side[] = choice === 'both' ? ['top', 'bottom'] : [choice];
     const loaded = await loadJob(jobPath);
-    const runs: RunResult[] = sides.map((side) =>
-      runJob({
-        job: loaded.job,
-        centroidText: loaded.centroidText,
-        library: loaded.library,
-        side,
-        jobFile: jobPath,
-        centroidFile: loaded.job.centroid,
-      }),
-    );
-    let result;
-    try {
-      result = verify(verifyInputFromRuns(runs), { sides: choice, limit: CLI_FINDINGS_LIMIT });
-    } catch (e) {
-      if (e instanceof VerifyInputError) throw new EngineInputError(e.message, { file: jobPath, code: 'bad-geometry' });
-      throw e;
-    }
-    // import warnings once (both runs share the import), then each side's own
-    const seen = new Set<string>();
-    for (const r of runs) {
-      warn(io, r.warnings.filter((w) => {
-        const k = `${w.line}|${w.message}`;
-        if (seen.has(k)) return false;
-        seen.add(k);
-        return true;
-      }), loaded.job.centroid);
-    }
+    const run = runLoaded(loaded, sides, { limit: CLI_FINDINGS_LIMIT });
+    const result = run.check!;
+    // each distinct warning once (the sides share the import)
+    warn(io, run.warnings, loaded.job.centroid);
     if (result.summary.truncated) {
       io.stderr(`warning: ${result.summary.errors + result.summary.warnings} findings; only the first ${result.findings.length} are listed\n`);
     }

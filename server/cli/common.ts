@@ -5,7 +5,7 @@ import { EngineInputError } from '../../shared/pipeline/errors';
 import { parseWith } from '../../shared/pipeline/parse-input';
 import { jobSchema, type Job } from '../../shared/schemas/job.schema';
 import { libraryFileSchema, type LibraryFile } from '../../shared/schemas/library-file.schema';
-import { runJob } from '../../shared/pipeline/run-job';
+import { runRevision, type RevisionRun } from '../../shared/engine';
 import type { RunResult, Side } from '../../shared/pipeline/types';
 
 export const EXIT_OK = 0;
@@ -155,18 +155,23 @@ export async function loadJob(jobPath: string): Promise<LoadedJob> {
   return { job, jobPath, centroidPath, centroidText, library, libraryPath };
 }
 
-/** Load a job and run the engine for one side. */
-export async function runJobFile(jobPath: string, side: Side): Promise<{ loaded: LoadedJob; result: RunResult }> {
-  const loaded = await loadJob(jobPath);
-  const result = runJob({
+/** Run a loaded job through the engine's one entry (runRevision), for the sides asked. */
+export function runLoaded(loaded: LoadedJob, sides: Side[], check: boolean | { limit?: number }): RevisionRun {
+  return runRevision({
     job: loaded.job,
     centroidText: loaded.centroidText,
     library: loaded.library,
-    side,
-    jobFile: jobPath,
+    sides,
+    check,
+    jobFile: loaded.jobPath,
     centroidFile: loaded.job.centroid,
   });
-  return { loaded, result };
+}
+
+/** Load a job and run the engine for one side (no checks). */
+export async function runJobFile(jobPath: string, side: Side): Promise<{ loaded: LoadedJob; result: RunResult }> {
+  const loaded = await loadJob(jobPath);
+  return { loaded, result: runLoaded(loaded, [side], false).runs[0] };
 }
 
 /** Write to --out FILE, else stdout. */

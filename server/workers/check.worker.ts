@@ -1,7 +1,12 @@
 // Worker thread (piscina): checks a revision off the main thread, so the API stays responsive
-// while a large panel is verified.
-import { checkRevision, type EngineInput } from '../modules/programs/engine';
+// while a large panel is verified. The engine's one entry does the work (engine.ts → runRevision).
+import { checkRevision, releaseRevision, type EngineInput } from '../modules/programs/engine';
 
 export default function check(input: EngineInput) {
   return checkRevision(input);
+}
+
+/** The checks and the placement lists of a release from one run (piscina task `release`). */
+export function release({ input, generated }: { input: EngineInput; generated: string }) {
+  return releaseRevision(input, generated);
 }

@@ -34,6 +34,20 @@ export interface ImportOptions {
   file?: string;
 }
 
+/** What `importCentroidCollecting` found: the good rows, and every bad row (up to the cap). */
+export interface CollectedImport {
+  /** the import of the good rows; null when a file-wide problem stopped the reading */
+  imported: ImportResult | null;
+  /** bad rows in file order, at most `limit` of them */
+  rowErrors: EngineInputError[];
+  /** a problem with the whole file (no header, no units, no rows…), else null */
+  fileError: EngineInputError | null;
+  /** more bad rows than `limit` were found (they are counted, not kept) */
+  truncated: boolean;
+  /** every bad row found, kept or not */
+  badRows: number;
+}
+
 const DELIMS = [',', ';', '\t'] as const;
 type Delim = (typeof DELIMS)[number];
 const HEADER_SCAN_LINES = 200;
@@ -98,9 +112,36 @@ function mapFields(infos: HeaderInfo[], map: Partial<Record<Field, string>>): Ma
 }
 
 /**
- * Import a centroid file. Throws EngineInputError (file, line, column) on bad input.
+ * Import a centroid file. Throws EngineInputError (file, line, column) on bad input; the first
+ * bad row (in file order) stops it.
  */
 export function importCentroid(input: string, opts: ImportOptions = {}): ImportResult {
+  return readCentroid(input, opts, null);
+}
+
+/**
+ * Import a centroid file in one pass, collecting every bad row instead of stopping at the first:
+ * a bad row is left out and reported with its line and column, the good rows are imported. A
+ * problem with the whole file (no header row, no units, no rows left) ends the reading and is
+ * returned as `fileError`. At most `limit` row errors are kept; the rest are only counted.
+ */
+export function importCentroidCollecting(input: string, opts: ImportOptions = {}, limit = 200): CollectedImport {
+  const rowErrors: EngineInputError[] = [];
+  let badRows = 0;
+  const report = (e: EngineInputError) => {
+    badRows++;
+    if (rowErrors.length < limit) rowErrors.push(e);
+  };
+  try {
+    const imported = readCentroid(input, opts, report);
+    return { imported, rowErrors, fileError: null, truncated: badRows > rowErrors.length, badRows };
+  } catch (e) {
+    if (!(e instanceof EngineInputError)) throw e;
+    return { imported: null, rowErrors, fileError: e, truncated: badRows > rowErrors.length, badRows };
+  }
+}
+
+function readCentroid(input: string, opts: ImportOptions, report: ((e: EngineInputError) => void) | null): ImportResult {
   const file = opts.file;
   const map = opts.map ?? {};
   const warnings: EngineWarning[] = [];
@@ -262,7 +303,7 @@ export function importCentroid(input: string, opts: ImportOptions = {}): ImportR
 
   const { table, xs, ys, xu, yu, firstSuffix, anyPlain, firstPlainLine } = readRows(rows, {
     file, hasQuotes, minCells, iRef, iX, iY, iRot, iSide, iFp, iVal, iPn, iDnp, dnpInverted, decimalComma, knownUnit, infos,
-    headerLine, bottomRotation: opts.bottomRotation ?? 'bottom-view',
+    headerLine, bottomRotation: opts.bottomRotation ?? 'bottom-view', report,
   });
   if (table.count === 0) {
     throw err('the file is empty: a header row but no data rows', { line: headerLine, code: 'empty' });
@@ -436,6 +477,8 @@ interface RowContext {
   infos: HeaderInfo[];
   headerLine: number;
   bottomRotation: BottomRotation;
+  /** collecting mode: a bad row is handed here and skipped; null: it is thrown */
+  report: ((e: EngineInputError) => void) | null;
 }
 
 /** The row loop, on its own so that the engine optimises it as a small function. */
@@ -464,6 +507,13 @@ function readRows(rows: string[][], c: RowContext) {
   let anyPlain = false;
   let firstPlainLine = 0;
 
+  const report = c.report;
+  /** a bad row: thrown, or (collecting) reported and then skipped by the caller's `continue` */
+  const bad = (e: EngineInputError): void => {
+    if (!report) throw e;
+    report(e);
+  };
+
   let line = headerLine + 1;
   for (let r = 0; r < n; r++) {
     const row = rows[r];
@@ -483,24 +533,32 @@ function readRows(rows: string[][], c: RowContext) {
     if ((f0 === 35 || f0 === 47 || f0 <= 32) && /^\s*(#|\/\/)/.test(first)) continue;
     if (row.length < minCells) {
       if (row.every((cell) => cell.trim() === '')) continue;
-      throw rowErr(c.file, `expected at least ${minCells} columns, found ${row.length}`, { line: rowLine, code: 'short-row' });
+      bad(rowErr(c.file, `expected at least ${minCells} columns, found ${row.length}`, { line: rowLine, code: 'short-row' }));
+      continue;
     }
     const ref = trimCell(row[iRef]);
-    if (ref === '') throw rowErr(c.file, 'empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' });
+    if (ref === '') {
+      bad(rowErr(c.file, 'empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' }));
+      continue;
+    }
     if (refTable.seen(ref, count)) {
       const prev = lines[refs.indexOf(ref)];
-      throw rowErr(c.file, `duplicate reference "${ref}" (first on line ${prev})`, {
+      bad(rowErr(c.file, `duplicate reference "${ref}" (first on line ${prev})`, {
         line: rowLine,
         column: infos[iRef].raw,
         code: 'duplicate-ref',
-      });
+      }));
+      continue;
     }
 
     let vx = plainNumber(row[iX]);
     let ux: Units | null = null;
     if (vx !== vx) {
       const p = parseNumberCell(row[iX], decimalComma);
-      if (!p) throw badNumberErr(c.file, row[iX], rowLine, infos[iX].raw);
+      if (!p) {
+        bad(badNumberErr(c.file, row[iX], rowLine, infos[iX].raw));
+        continue;
+      }
       vx = p.value;
       ux = p.unit;
     }
@@ -508,12 +566,18 @@ function readRows(rows: string[][], c: RowContext) {
     let uy: Units | null = null;
     if (vy !== vy) {
       const p = parseNumberCell(row[iY], decimalComma);
-      if (!p) throw badNumberErr(c.file, row[iY], rowLine, infos[iY].raw);
+      if (!p) {
+        bad(badNumberErr(c.file, row[iY], rowLine, infos[iY].raw));
+        continue;
+      }
       vy = p.value;
       uy = p.unit;
     }
     const rot = parseRotationCell(row[iRot], decimalComma);
-    if (rot === null) throw badNumberErr(c.file, row[iRot], rowLine, infos[iRot].raw);
+    if (rot === null) {
+      bad(badNumberErr(c.file, row[iRot], rowLine, infos[iRot].raw));
+      continue;
+    }
     const idx = count;
     xs[idx] = vx;
     ys[idx] = vy;
@@ -531,10 +595,11 @@ function readRows(rows: string[][], c: RowContext) {
     if (iSide >= 0) {
       const s = parseSideCell(row[iSide] ?? '');
       if (!s) {
-        throw rowErr(c.file, 
+        bad(rowErr(c.file,
           `unrecognised side "${(row[iSide] ?? '').trim()}"; expected top/bottom, t/b, top/bot, front/back, f/b or component/solder`,
           { line: rowLine, column: infos[iSide].raw, code: 'bad-side' },
-        );
+        ));
+        continue;
       }
       side = s;
     }
@@ -542,11 +607,12 @@ function readRows(rows: string[][], c: RowContext) {
     if (iDnp >= 0) {
       const f = parseFlagCell(row[iDnp] ?? '');
       if (f === null) {
-        throw rowErr(c.file, `unrecognised do-not-place value "${(row[iDnp] ?? '').trim()}"; expected yes/no, true/false, 1/0 or x/empty`, {
+        bad(rowErr(c.file, `unrecognised do-not-place value "${(row[iDnp] ?? '').trim()}"; expected yes/no, true/false, 1/0 or x/empty`, {
           line: rowLine,
           column: infos[iDnp].raw,
           code: 'bad-flag',
-        });
+        }));
+        continue;
       }
       dnp = dnpInverted ? !f : f;
     }
@@ -606,7 +672,12 @@ class RefTable {
     this.table = new Int32Array(size).fill(-1);
     this.mask = size - 1;
   }
-  /** true when `ref` was seen before; otherwise records it as placement `index` */
+  /**
+   * true when `ref` was seen before; otherwise records it as placement `index`. A row that fails
+   * after this call (collecting mode) leaves a slot naming `index`, which the next good row
+   * reuses: the slot then compares against that row's reference, so it can only ever answer
+   * "seen" for a reference that really was seen.
+   */
   seen(ref: string, index: number): boolean {
     let h = 0x811c9dc5;
     for (let i = 0; i < ref.length; i++) h = Math.imul(h ^ ref.charCodeAt(i), 0x01000193);

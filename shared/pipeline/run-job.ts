@@ -148,7 +148,9 @@ export function runJob(input: RunJobInput): RunResult {
   const outputMapOf = (n: number): Affine => localAffine.get(n) ?? panelT;
 
   // ---- assignments per source part ----------------------------------------------------------
-  const assigner = new Assigner(library, job.machine ? job.machine.nozzles : null);
+  const overrides = job.overrides ?? {};
+  const assigner = new Assigner(library, job.machine ? job.machine.nozzles : null, overrides);
+  const overriding = assigner.hasOverrides;
   if (!library) warnings.push({ line: null, message: 'no library: no part has a package', code: 'no-library' });
   const src = imported.table ?? placementsToTable(imported.placements);
   const sideCode = side === 'bottom' ? 1 : 0;
@@ -166,7 +168,7 @@ export function runJob(input: RunJobInput): RunResult {
     const i = parts[j];
     sx[j] = src.x[i]; sy[j] = src.y[i];
     const fp = src.footprint[i];
-    const a = assigner.assign(fp);
+    const a = overriding ? assigner.assignPart(src.ref[i], fp) : assigner.assign(fp);
     srot[j] = src.rotation[i] + (a.pkg ? a.pkg.rotationOffset : 0);
     pkgName.push(a.pkg ? a.pkg.name : null);
     nozzle.push(a.nozzle);
@@ -188,6 +190,7 @@ export function runJob(input: RunJobInput): RunResult {
     }
   }
   for (const u of unmatched.values()) u.placements = u.count * placedBoards.length;
+  if (overriding) warnings.push(...overrideWarnings(overrides, assigner, src, side));
 
   // ---- step-out: the hot loop ---------------------------------------------------------------
   const total = m * placedBoards.length;
@@ -287,6 +290,21 @@ export function runJob(input: RunJobInput): RunResult {
     import: imported,
     warnings,
   };
+}
+
+/**
+ * Overrides that could not be applied as written, and overrides of references that are not in
+ * the centroid file (reported with the top side only, so a two-sided run says it once).
+ */
+function overrideWarnings(overrides: Readonly<Record<string, unknown>>, assigner: Assigner, src: { count: number; ref: string[] }, side: Side): EngineWarning[] {
+  const out: EngineWarning[] = assigner.problems.map((p) => ({ line: null, message: p.message, code: 'override-unknown-name' }));
+  if (side === 'top') {
+    const refs = new Set(src.ref);
+    for (const ref of Object.keys(overrides)) {
+      if (!refs.has(ref)) out.push({ line: null, message: `override of ${ref}: no part ${ref} in the centroid file`, code: 'override-unknown-ref' });
+    }
+  }
+  return out;
 }
 
 /** `n` copies of a typed column, one after another. */

@@ -86,6 +86,23 @@ export const limitsSchema = z.strictObject({
   rotationDeg: positive.default(2),
 });
 
+/**
+ * One part's override, keyed by its reference in `overrides`: a package, nozzle or vision preset
+ * named as in the library (case and surrounding spaces ignored), and the reason, which a reviewer
+ * reads. Applied by the engine before the placements are built (shared/library).
+ */
+export const overrideSchema = z
+  .strictObject({
+    package: z.string().trim().min(1).max(120).optional(),
+    nozzle: z.string().trim().min(1).max(60).optional(),
+    vision: z.string().trim().min(1).max(60).optional(),
+    reason: z.string().trim().min(3, 'Say why (at least 3 characters)').max(500),
+  })
+  .refine((o) => o.package !== undefined || o.nozzle !== undefined || o.vision !== undefined, { message: 'override at least one of package, nozzle or vision' });
+
+/** Overrides keyed by part reference (as in the centroid file, case-sensitive like the file). */
+export const overridesSchema = z.record(z.string().min(1).max(64), overrideSchema);
+
 export const jobSchema = z.strictObject({
   centroid: z.string().min(1),
   import: importOptionsSchema.default({}),
@@ -98,6 +115,7 @@ export const jobSchema = z.strictObject({
   machine: machineSchema.optional(),
   program: z.string().optional(),
   revision: z.string().optional(),
+  overrides: overridesSchema.default({}),
 });
 
 export type JobInput = z.input<typeof jobSchema>;
@@ -107,3 +125,4 @@ export type JobGrid = z.output<typeof gridSchema>;
 export type JobFiducial = z.output<typeof fiducialSchema>;
 export type JobMachine = z.output<typeof machineSchema>;
 export type AlignLimits = z.output<typeof limitsSchema>;
+export type PartOverride = z.output<typeof overrideSchema>;

@@ -49,14 +49,22 @@ export const libraryFileSchema = z
   .superRefine((lib, ctx) => {
     const seen = new Map<string, number>();
     lib.packages.forEach((p, i) => {
-      const k = p.name.toLowerCase();
+      const k = p.name.trim().toLowerCase();
       if (seen.has(k)) ctx.addIssue({ code: 'custom', message: `duplicate package name "${p.name}" (also packages.${seen.get(k)})`, path: ['packages', i, 'name'] });
       else seen.set(k, i);
     });
+    // names compare without case and surrounding spaces (the engine's one name rule)
     const nz = new Set<string>();
     lib.nozzles.forEach((n, i) => {
-      if (nz.has(n.name)) ctx.addIssue({ code: 'custom', message: `duplicate nozzle "${n.name}"`, path: ['nozzles', i, 'name'] });
-      nz.add(n.name);
+      const k = n.name.trim().toLowerCase();
+      if (nz.has(k)) ctx.addIssue({ code: 'custom', message: `duplicate nozzle "${n.name}"`, path: ['nozzles', i, 'name'] });
+      nz.add(k);
+    });
+    const vp = new Set<string>();
+    lib.visionPresets.forEach((v, i) => {
+      const k = v.name.trim().toLowerCase();
+      if (vp.has(k)) ctx.addIssue({ code: 'custom', message: `duplicate vision preset "${v.name}"`, path: ['visionPresets', i, 'name'] });
+      vp.add(k);
     });
   });
 
@@ -64,3 +72,4 @@ export type LibraryFile = z.output<typeof libraryFileSchema>;
 export type LibraryFileInput = z.input<typeof libraryFileSchema>;
 export type LibraryPackage = z.output<typeof libraryPackageSchema>;
 export type LibraryNozzle = z.output<typeof libraryNozzleSchema>;
+export type LibraryVisionPreset = z.output<typeof libraryVisionPresetSchema>;

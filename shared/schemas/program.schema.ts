@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { findingKindSchema, findingSchema, findingsSummarySchema } from './finding.schema';
-import { boardOutlineSchema, fiducialSchema, importOptionsSchema, limitsSchema, machineSchema, panelSchema } from './job.schema';
+import { boardOutlineSchema, fiducialSchema, importOptionsSchema, limitsSchema, machineSchema, overrideSchema, panelSchema, type PartOverride } from './job.schema';
 
 export const REVISION_STATES = ['draft', 'in-review', 'released', 'superseded', 'withdrawn'] as const;
 export const revisionStateSchema = z.enum(REVISION_STATES);
@@ -45,7 +45,7 @@ export type RevisionSettings = z.output<typeof revisionSettingsSchema>;
 
 /** A job file (CLI.md) as revision settings: the job without its file names and labels. */
 export function settingsFromJob(job: Record<string, unknown>): RevisionSettings {
-  const { centroid: _c, library: _l, program: _p, revision: _r, ...settings } = job;
+  const { centroid: _c, library: _l, program: _p, revision: _r, overrides: _o, ...settings } = job;
   return revisionSettingsSchema.parse(settings);
 }
 export type RevisionSettingsInput = z.input<typeof revisionSettingsSchema>;
@@ -55,13 +55,9 @@ export const updateSettingsInputSchema = z.object({
   version: z.number().int().min(1),
 });
 
-export const overrideSchema = z.strictObject({
-  package: z.string().trim().min(1).max(120).optional(),
-  nozzle: z.string().trim().min(1).max(60).optional(),
-  vision: z.string().trim().min(1).max(60).optional(),
-  reason: z.string().trim().min(3, 'Say why (at least 3 characters)').max(500),
-});
-export type Override = z.infer<typeof overrideSchema>;
+/** A part's override is the job file's (shared/schemas/job.schema.ts): one format, one reader. */
+export { overrideSchema };
+export type Override = PartOverride;
 
 export const updateOverridesInputSchema = z.object({
   overrides: z.record(z.string().min(1).max(64), overrideSchema),

@@ -2,7 +2,7 @@ import { Piscina } from 'piscina';
 import { fileURLToPath } from 'node:url';
 import type { VerifyResult } from '../../../shared/verify/types';
 import { DomainError } from '../../lib/errors';
-import type { EngineInput } from './engine';
+import type { EngineInput, ReleaseOutput } from './engine';
 
 const WORKER = fileURLToPath(new URL('../../workers/check.worker.ts', import.meta.url));
 
@@ -21,9 +21,19 @@ export class CheckPool {
     return this.pool;
   }
 
-  async run(input: EngineInput): Promise<VerifyResult> {
+  /** The revision's checks (every side with parts). */
+  run(input: EngineInput): Promise<VerifyResult> {
+    return this.task('default', input);
+  }
+
+  /** The checks and the placement lists of a release, from one run. */
+  release(input: EngineInput, generated: string): Promise<ReleaseOutput> {
+    return this.task('release', { input, generated });
+  }
+
+  private async task<T>(name: string, payload: unknown): Promise<T> {
     try {
-      return await this.instance.run(input, { signal: AbortSignal.timeout(this.timeoutMs) });
+      return await this.instance.run(payload, { name, signal: AbortSignal.timeout(this.timeoutMs) });
     } catch (err) {
       if ((err as Error).name === 'AbortError' || (err as Error).name === 'TimeoutError') {
         throw new DomainError(503, 'Check took too long', `The check did not finish within ${Math.round(this.timeoutMs / 1000)} s. Try again; if it keeps happening, tell an admin.`);

@@ -1,12 +1,11 @@
-// The programs module's bridge to the engine in shared/: builds a job from a revision's settings,
-// runs one side with the revision's overrides, and checks both sides. Pure (no database), so the
-// check worker thread can import it too.
-import { importCentroid } from '../../../shared/centroid';
-import { runJob } from '../../../shared/pipeline/run-job';
-import type { ImportResult, RunResult, Side } from '../../../shared/pipeline/types';
-import { verifyInputFromRuns } from '../../../shared/verify/from-job';
-import { verify } from '../../../shared/verify';
-import type { VerifyResult } from '../../../shared/verify/types';
+// The programs module's bridge to the engine: maps a revision's database rows to a job file and
+// hands it to the engine's one entry (shared/engine, runRevision). No engine rule lives here.
+// Pure (no database), so the check worker thread imports it too.
+import { importCentroid, importCentroidCollecting, type CollectedImport } from '../../../shared/centroid';
+import { runRevision, type RevisionRun, type SideSelection } from '../../../shared/engine';
+import type { ImportResult } from '../../../shared/pipeline';
+import { writePlacementListCsv, writePlacementListJson } from '../../../shared/placement-list';
+import type { VerifyResult } from '../../../shared/verify';
 import { jobSchema, type Job } from '../../../shared/schemas/job.schema';
 import type { LibraryFile } from '../../../shared/schemas/library-file.schema';
 import type { Override, RevisionSettings } from '../../../shared/schemas/program.schema';
@@ -24,70 +23,75 @@ export interface EngineInput {
   centroidName: string;
 }
 
-/** The job file equivalent of a revision; says which stage is missing what. */
-export function buildJob(settings: RevisionSettings, program: string, revision: string, centroidName: string): Job {
+/** The job file equivalent of a revision (overrides included); says which stage is missing what. */
+export function buildJob(settings: RevisionSettings, program: string, revision: string, centroidName: string, overrides: Record<string, Override> = {}): Job {
   if (!settings.board) throw new BadRequestError('The board outline is not set: enter its origin and size in the Panelize stage.', [{ path: 'settings.board', message: 'Required' }]);
   if (!settings.panel) throw new BadRequestError('The panel is not set: describe the grid or the board instances in the Panelize stage.', [{ path: 'settings.panel', message: 'Required' }]);
-  const parsed = jobSchema.safeParse({ ...settings, centroid: centroidName, program, revision });
+  const parsed = jobSchema.safeParse({ ...settings, centroid: centroidName, program, revision, overrides });
   if (!parsed.success) {
-    throw new BadRequestError('The revision settings are not valid.', parsed.error.issues.map((i) => ({ path: `settings.${i.path.join('.')}`, message: i.message })));
+    throw new BadRequestError('The revision settings are not valid.', parsed.error.issues.map((i) => ({ path: i.path[0] === 'overrides' ? i.path.join('.') : `settings.${i.path.join('.')}`, message: i.message })));
   }
   return parsed.data;
 }
 
+function importOptions(settings: Pick<RevisionSettings, 'import'>, fileName: string) {
+  return { file: fileName, units: settings.import.units, unitsSource: settings.import.units ? ('job' as const) : undefined, bottomRotation: settings.import.bottomRotation, map: settings.import.map };
+}
+
 /** Reads a centroid file with the revision's import options. Throws EngineInputError. */
 export function importFile(text: string, settings: Pick<RevisionSettings, 'import'>, fileName: string): ImportResult {
-  return importCentroid(text, { file: fileName, units: settings.import.units, unitsSource: settings.import.units ? 'job' : undefined, bottomRotation: settings.import.bottomRotation, map: settings.import.map });
+  return importCentroid(text, importOptions(settings, fileName));
 }
 
-/**
- * A package override works through the engine's own matching: the part's footprint becomes the
- * package name (the first match rule), so body, rotation offset, nozzle and preset follow.
- */
-function withPackageOverrides(imported: ImportResult, overrides: Record<string, Override>): ImportResult {
-  if (!Object.values(overrides).some((o) => o.package)) return imported;
-  return {
-    ...imported,
-    placements: imported.placements.map((p) => (overrides[p.ref]?.package ? { ...p, footprint: overrides[p.ref].package! } : p)),
-  };
+/** Reads a centroid file in one pass, listing every bad row (at most `limit`). */
+export function previewFile(text: string, settings: Pick<RevisionSettings, 'import'>, fileName: string, limit: number): CollectedImport {
+  return importCentroidCollecting(text, importOptions(settings, fileName), limit);
 }
 
-/** Nozzle and preset overrides replace the engine's choice after the run. */
-function applyNozzleAndVision(run: RunResult, overrides: Record<string, Override>, library: LibraryFile | null) {
-  const p = run.placements;
-  const nozzles = new Map((library?.nozzles ?? []).map((n) => [n.name.toLowerCase(), n]));
-  for (let i = 0; i < p.count; i++) {
-    const o = overrides[p.ref[i]];
-    if (!o) continue;
-    if (o.nozzle) {
-      p.nozzle[i] = o.nozzle;
-      const n = nozzles.get(o.nozzle.toLowerCase());
-      p.holderRadius[i] = n ? n.holderRadius : NaN;
-    }
-    if (o.vision) p.vision[i] = o.vision;
-  }
+/** The revision through the engine: the sides asked for, and their findings when `check`. */
+export function runEngine(input: EngineInput, opts: { sides?: SideSelection; check?: boolean } = {}): RevisionRun {
+  const job = buildJob(input.settings, input.program, input.revision, input.centroidName, input.overrides);
+  return runRevision({ job, imported: input.imported, library: input.library, sides: opts.sides ?? 'with-parts', check: opts.check ?? true });
 }
 
-export function runSide(input: EngineInput, side: Side): RunResult {
-  const job = buildJob(input.settings, input.program, input.revision, input.centroidName);
-  const run = runJob({ job, imported: withPackageOverrides(input.imported, input.overrides), library: input.library, side });
-  applyNozzleAndVision(run, input.overrides, input.library);
-  return run;
-}
-
-/** Sides that have parts to place (top always, so an empty board still shows its panel). */
-export function sidesWithParts(imported: ImportResult): Side[] {
-  const bottom = imported.placements.some((p) => p.side === 'bottom' && !p.dnp);
-  return bottom ? ['top', 'bottom'] : ['top'];
-}
-
-export interface CheckOutput {
-  result: VerifyResult;
-  runs: RunResult[];
-}
-
-/** Runs every side with parts and checks them together. */
+/** Every side with parts, checked together (what the check worker runs). */
 export function checkRevision(input: EngineInput): VerifyResult {
-  const runs = sidesWithParts(input.imported).map((s) => runSide(input, s));
-  return verify(verifyInputFromRuns(runs));
+  return runEngine(input).check!;
+}
+
+export interface ReleaseFileText {
+  side: 'top' | 'bottom';
+  format: 'csv' | 'json';
+  text: string;
+  sha256: string;
+  placements: number;
+}
+
+export interface ReleaseOutput {
+  check: VerifyResult;
+  /** the placement lists of every side with parts (CSV and JSON), written from the run checked */
+  files: ReleaseFileText[];
+  /** sides with parts that have no package: the lists must not be released */
+  withoutPackage: { side: 'top' | 'bottom'; count: number }[];
+}
+
+/** One run for a release: the findings and the lists come from the same placements. */
+export async function releaseRevision(input: EngineInput, generated: string): Promise<ReleaseOutput> {
+  const { runs, check } = runEngine(input);
+  const files: ReleaseFileText[] = [];
+  const withoutPackage: ReleaseOutput['withoutPackage'] = [];
+  for (const run of runs) {
+    if (run.placements.count === 0 && run.side === 'bottom') continue;
+    let count = 0;
+    for (const p of run.placements.packageName) if (p === null) count++;
+    if (count) {
+      withoutPackage.push({ side: run.side, count });
+      continue;
+    }
+    const csv = await writePlacementListCsv(run, { generated });
+    const json = await writePlacementListJson(run, { generated });
+    files.push({ side: run.side, format: 'csv', text: csv.text, sha256: csv.sha256, placements: run.placements.count });
+    files.push({ side: run.side, format: 'json', text: json.text, sha256: json.sha256, placements: run.placements.count });
+  }
+  return { check: check!, files, withoutPackage };
 }

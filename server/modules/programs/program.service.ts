@@ -1,10 +1,8 @@
 import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { PackageMatcher } from '../../../shared/library';
-import { EngineInputError } from '../../../shared/pipeline/errors';
+import { unmatchedFootprints } from '../../../shared/library';
 import type { ImportResult, Side } from '../../../shared/pipeline/types';
 import { runResultToJson, type RunResultJson } from '../../../shared/pipeline/serialize';
-import { writePlacementListCsv, writePlacementListJson } from '../../../shared/placement-list';
 import type { Finding } from '../../../shared/schemas/finding.schema';
 import type { LibraryFile } from '../../../shared/schemas/library-file.schema';
 import { everyBoardKey, everyBoardKeyOfKey, waiverLookup } from '../../../shared/review/waivers';
@@ -28,7 +26,7 @@ import type { AuditService } from '../audit/audit.service';
 import type { Mailer } from '../mail/mailer';
 import type { UserService } from '../users/user.service';
 import type { CheckPool } from './check-pool';
-import { CENTROID_NAME_FALLBACK, importFile, runSide, sidesWithParts, type EngineInput } from './engine';
+import { CENTROID_NAME_FALLBACK, importFile, previewFile, runEngine, type EngineInput } from './engine';
 import { buildReviewSummary, revisionChanges } from './review-summary';
 
 /** Where programs get the shared package library (the library module provides it). */
@@ -40,27 +38,6 @@ export interface LibrarySource {
 export const UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
 /** The import preview lists at most this many row errors. */
 export const PREVIEW_ERROR_LIMIT = 200;
-
-/** Replaces physical line `line` (1-based) with an empty one, keeping every other line's number. */
-function blankLine(text: string, line: number): string {
-  let start = 0;
-  for (let n = 1; n < line; n++) {
-    const nl = text.indexOf('\n', start);
-    if (nl < 0) return text;
-    start = nl + 1;
-  }
-  let end = text.indexOf('\n', start);
-  if (end < 0) end = text.length;
-  if (text[end - 1] === '\r') end -= 1;
-  return text.slice(0, start) + text.slice(end);
-}
-
-const FILE_WIDE_CODES = new Set(['no-header', 'missing-column', 'empty', 'duplicate-column', 'unit-conflict', 'units-mixed', 'bad-map']);
-
-/** An error on the header row, or one that repeats on the same line, cannot be stepped past. */
-function isHeaderOrFileError(err: EngineInputError, seen: { line: number }[]): boolean {
-  return seen.some((e) => e.line === err.line) || FILE_WIDE_CODES.has(err.code ?? '');
-}
 
 const EDITABLE: RevisionState[] = ['draft'];
 
@@ -298,33 +275,21 @@ export class ProgramService {
 
   /**
    * Reads a file without saving: what the import would give (dialect, mapping, first rows) and
-   * every row error with its line. The engine stops at the first bad row; to list them all, the
-   * preview blanks that line (blank lines are skipped and keep the numbering) and reads again.
-   * A file-wide problem (no units, a missing column, no rows) ends the list.
+   * every row error with its line, from one pass of the engine's collecting import. A file-wide
+   * problem (no units, a missing column, no rows) ends the list; alone, it is the answer's error.
    */
   previewImport(bytes: Buffer, fileName: string, importOptions: RevisionSettings['import']) {
-    let text = decodeText(bytes, fileName);
-    const rowErrors: { line: number; column: string | null; message: string }[] = [];
-    let imported: ImportResult | null = null;
-    while (!imported) {
-      try {
-        imported = importFile(text, { import: importOptions }, fileName);
-      } catch (err) {
-        if (!(err instanceof EngineInputError) || err.line === undefined || rowErrors.length >= PREVIEW_ERROR_LIMIT || isHeaderOrFileError(err, rowErrors)) {
-          if (rowErrors.length === 0) throw err;
-          if (err instanceof EngineInputError && rowErrors.length < PREVIEW_ERROR_LIMIT) rowErrors.push({ line: err.line ?? 0, column: err.column ?? null, message: err.detail });
-          break;
-        }
-        rowErrors.push({ line: err.line, column: err.column ?? null, message: err.detail });
-        text = blankLine(text, err.line);
-      }
-    }
+    const text = decodeText(bytes, fileName);
+    const { imported, rowErrors: bad, fileError, truncated } = previewFile(text, { import: importOptions }, fileName, PREVIEW_ERROR_LIMIT);
+    if (fileError && bad.length === 0) throw fileError;
+    const rowErrors = bad.map((e) => ({ line: e.line ?? 0, column: e.column ?? null, message: e.detail }));
+    if (fileError && rowErrors.length < PREVIEW_ERROR_LIMIT) rowErrors.push({ line: fileError.line ?? 0, column: fileError.column ?? null, message: fileError.detail });
     if (!imported) {
-      return { fileName, bytes: bytes.length, sha256: sha256(bytes), units: null, dialect: null, headers: [], columns: {}, warnings: [], rows: 0, first: [], rowErrors, truncated: rowErrors.length >= PREVIEW_ERROR_LIMIT };
+      return { fileName, bytes: bytes.length, sha256: sha256(bytes), units: null, dialect: null, headers: [], columns: {}, warnings: [], rows: 0, first: [], rowErrors, truncated };
     }
     return {
       rowErrors,
-      truncated: rowErrors.length >= PREVIEW_ERROR_LIMIT,
+      truncated,
       fileName,
       bytes: bytes.length,
       sha256: sha256(bytes),
@@ -362,7 +327,7 @@ export class ProgramService {
       await m.getRepository(ProgramRevision).save(r);
       const program = await m.getRepository(Program).findOneByOrFail({ id: r.programId });
       if (this.deps.library.recordUnmatchedFootprints && library) {
-        const unmatched = unmatchedFootprints(imported, library);
+        const unmatched = unmatchedFootprints(imported.placements, library, r.overrides as Record<string, Override>);
         if (unmatched.length) await this.deps.library.recordUnmatchedFootprints(m, `${program.name} ${r.label}`, unmatched);
       }
       await this.deps.audit.record(user, 'revision.import', `${program.name} ${r.label}`, { file: fileName, rows: imported.placements.length, sha256: r.centroidSha256 }, ip, m);
@@ -430,7 +395,7 @@ export class ProgramService {
   /** One side of the panel as the engine computes it now (not stored: it is quick). */
   async run(revisionId: string, side: Side): Promise<RunResultJson> {
     const r = await this.getRevisionEntity(revisionId);
-    return runResultToJson(runSide(await this.engineInput(r), side));
+    return runResultToJson(runEngine(await this.engineInput(r), { sides: [side], check: false }).runs[0]);
   }
 
   /** Runs the checks in a worker thread, stores the findings with the revision. */
@@ -559,18 +524,11 @@ export class ProgramService {
     if (r0.authorId === user.id) throw new ForbiddenError('You are the author of this revision: another engineer must review and release it.');
     const input = await this.engineInput(r0);
     // Re-check with today's library: the list released is the list checked.
-    const result = await this.deps.checks.run(input);
-    const runs = sidesWithParts(input.imported).map((s) => runSide(input, s));
+    // The lists released are the lists checked: one run gives both (in the check worker).
     const generated = new Date().toISOString().replace(/\.\d{3}Z$/, 'Z');
-    const files: { side: Side; format: 'csv' | 'json'; text: string; sha256: string; placements: number }[] = [];
-    for (const run of runs) {
-      if (run.placements.count === 0 && run.side === 'bottom') continue;
-      const unmatched = run.placements.packageName.filter((p) => p === null).length;
-      if (unmatched) throw new ConflictError(`${unmatched} placement${unmatched === 1 ? ' has' : 's have'} no package on the ${run.side} side; the list is not releasable. Add the packages or aliases to the library, or override the parts.`);
-      const csv = await writePlacementListCsv(run, { generated });
-      const json = await writePlacementListJson(run, { generated });
-      files.push({ side: run.side, format: 'csv', text: csv.text, sha256: csv.sha256, placements: run.placements.count });
-      files.push({ side: run.side, format: 'json', text: json.text, sha256: json.sha256, placements: run.placements.count });
+    const { check: result, files, withoutPackage } = await this.deps.checks.release(input, generated);
+    for (const { side, count } of withoutPackage) {
+      throw new ConflictError(`${count} placement${count === 1 ? ' has' : 's have'} no package on the ${side} side; the list is not releasable. Add the packages or aliases to the library, or override the parts.`);
     }
     let programLabel = '';
     let authorEmail: string | null = null;
@@ -680,17 +638,6 @@ export function decodeText(bytes: Buffer, fileName: string): string {
   } catch {
     return new TextDecoder('latin1').decode(bytes);
   }
-}
-
-/** Footprints of the import that no package matches (the engine's own matching rules), with counts. */
-function unmatchedFootprints(imported: ImportResult, library: LibraryFile): { footprint: string; count: number }[] {
-  const matcher = new PackageMatcher(library.packages);
-  const counts = new Map<string, number>();
-  for (const p of imported.placements) {
-    if (p.dnp || matcher.match(p.footprint).pkg) continue;
-    counts.set(p.footprint, (counts.get(p.footprint) ?? 0) + 1);
-  }
-  return [...counts].map(([footprint, count]) => ({ footprint, count }));
 }
 
 /** Waivers as sent, each with the number of `findings` it covers. */

@@ -1,13 +1,11 @@
-// "Panel preview": the canvas overlay on the demo samples, run in the browser (runJob + verify),
+// "Panel preview": the canvas overlay on the demo samples, run in the browser (runRevision),
 // for looking at the canvas without the programs module. Nothing is stored: comments, checked
 // marks and the underlay live in this page's state.
 import { useMemo, useState } from 'react';
-import { runJob } from '../../../shared/pipeline/run-job';
+import { runRevision } from '../../../shared/engine';
 import type { RunResult, Side } from '../../../shared/pipeline/types';
 import { jobSchema } from '../../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../../shared/schemas/library-file.schema';
-import { verifyInputFromRuns } from '../../../shared/verify/from-job';
-import { verify } from '../../../shared/verify/verify';
 import { SelectField } from '../../components/ui/field';
 import { ErrorPanel, PageHeader } from '../../components/ui/misc';
 import { PanelReview, ReviewSummary, type CanvasNote, type NewNote, type UnderlayState } from '../../features/canvas';
@@ -30,10 +28,10 @@ function runSample(id: SampleId) {
   const s = SAMPLES[id];
   const job = jobSchema.parse(JSON.parse(s.job));
   const library = libraryFileSchema.parse(JSON.parse(libraryText));
+  const run = runRevision({ job, centroidText: s.csv, library, sides: 'both' });
   const runs: Partial<Record<Side, RunResult>> = {};
-  for (const side of ['top', 'bottom'] as const) runs[side] = runJob({ job, centroidText: s.csv, library, side });
-  const result = verify(verifyInputFromRuns(Object.values(runs) as RunResult[]), { sides: 'both' });
-  return { runs, findings: result.findings, summary: result.summary };
+  for (const r of run.runs) runs[r.side] = r;
+  return { runs, findings: run.check!.findings, summary: run.check!.summary };
 }
 
 export default function CanvasPreviewRoute() {
