@@ -13,7 +13,8 @@ export function createDataSource(url: string, opts: { logging?: boolean } = {}):
     migrationsRun: false,
     logging: opts.logging ? ['error', 'warn', 'migration'] : ['error'],
     uuidExtension: 'pgcrypto',
-    extra: { max: 10 },
+    // A connection that cannot be made in 5 s fails (the API answers 503) instead of waiting forever.
+    extra: { max: 10, connectionTimeoutMillis: 5000 },
   });
 }
 

@@ -1,7 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { Problem } from '../../shared/schemas/problem.schema';
 import { EngineInputError } from '../../shared/pipeline/errors';
-import { DomainError, NotFoundError } from '../lib/errors';
+import { DomainError, NotFoundError, ServiceUnavailableError, isDatabaseUnavailable, uniqueViolation } from '../lib/errors';
 
 function problem(status: number, title: string, detail: string, errors: Problem['errors'] = []): Problem {
   return { status, title, detail, errors };
@@ -18,6 +18,14 @@ export const apiNotFound: RequestHandler = (req) => {
  */
 export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   let body: Problem;
+  // A unique index refused a row another request wrote first (a race): 409 naming the field.
+  const dup = uniqueViolation(err);
+  if (dup) err = dup;
+  // PostgreSQL down or unreachable: 503 with a retry hint, never a 500.
+  else if (!(err instanceof DomainError) && isDatabaseUnavailable(err)) {
+    err = new ServiceUnavailableError('The database is not answering, so this cannot be done just now. Try again in a few seconds; if it goes on, tell an admin (the PostgreSQL server may be stopped or restarting).');
+  }
+  if (err instanceof ServiceUnavailableError) res.setHeader('Retry-After', String(err.retryAfterSeconds));
   if (err instanceof DomainError) {
     body = problem(err.status, err.title, err.message, err.errors);
   } else if (err instanceof EngineInputError) {

@@ -12,7 +12,7 @@ export interface NavItem {
 export const NAV: NavItem[] = [
   { to: '/', label: 'Home', roles: [], section: 'work' },
   { to: '/programs', label: 'Programs', roles: ['engineer'], section: 'work' },
-  { to: '/library', label: 'Library', roles: ['librarian', 'engineer', 'operator'], section: 'work' },
+  { to: '/library', label: 'Library', roles: ['librarian', 'engineer'], section: 'work' },
   { to: '/run-files', label: 'Run files', roles: ['operator', 'engineer'], section: 'work' },
   { to: '/panel-preview', label: 'Panel preview', roles: ['engineer'], section: 'work' },
   { to: '/tokens', label: 'Line access', roles: ['engineer'], section: 'work' },

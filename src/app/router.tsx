@@ -91,7 +91,8 @@ export const routes = [
           { path: 'release', element: page(<ReleaseStage />) },
         ],
       },
-      libraryRoute,
+      // Operators are not offered the library: their run files and set-up sheets carry what they need.
+      { ...libraryRoute, element: <RequireRole roles={['engineer', 'librarian']}>{libraryRoute.element}</RequireRole> },
       { path: '*', element: page(<NotFoundRoute />) },
     ],
   },

@@ -3,7 +3,7 @@ import { navFor } from '../../src/app/nav';
 
 describe('navigation per role', () => {
   it.each([
-    [['operator'], ['/', '/library', '/run-files', '/account']],
+    [['operator'], ['/', '/run-files', '/account']],
     [['librarian'], ['/', '/library', '/account']],
     [['engineer'], ['/', '/programs', '/library', '/run-files', '/panel-preview', '/tokens', '/account']],
     [['admin'], ['/', '/programs', '/library', '/run-files', '/panel-preview', '/tokens', '/account', '/admin/users', '/admin/audit', '/admin/outbox']],

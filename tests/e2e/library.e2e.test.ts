@@ -135,15 +135,14 @@ describe('library in Chromium', () => {
     }
   });
 
-  it('operators read the library without edit actions', async () => {
+  it('operators are not offered the library (their run files carry what they need)', async () => {
     const page = await h.newPage();
     try {
       await signInAs(page, h.baseUrl, 'otto@harrowcreek.example', DEMO_PASSWORD);
       await page.goto(`${h.baseUrl}/library/packages`);
-      await page.getByRole('table', { name: 'Packages' }).getByText('R0603', { exact: true }).click();
-      await page.getByRole('form', { name: 'Package R0603' }).waitFor();
-      expect(await page.getByRole('button', { name: /Save|Propose|Delete/ }).count()).toBe(0);
-      await page.screenshot({ path: `${SCREENSHOT_DIR}/library-operator-reads.png`, fullPage: true });
+      await page.getByRole('heading', { name: 'Not for your roles' }).waitFor();
+      expect(await page.getByRole('table', { name: 'Packages' }).count()).toBe(0);
+      await page.screenshot({ path: `${SCREENSHOT_DIR}/library-operator-refused.png`, fullPage: true });
     } finally {
       await page.close();
     }

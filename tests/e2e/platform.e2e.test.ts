@@ -12,7 +12,7 @@ const EXPECTED_NAV: Record<string, string[]> = {
   admin: ['Home', 'Programs', 'Library', 'Run files', 'Panel preview', 'Line access', 'Account', 'Users', 'Audit log', 'Outbox'],
   engineer: ['Home', 'Programs', 'Library', 'Run files', 'Panel preview', 'Line access', 'Account'],
   librarian: ['Home', 'Library', 'Account'],
-  operator: ['Home', 'Library', 'Run files', 'Account'],
+  operator: ['Home', 'Run files', 'Account'],
 };
 
 describe('signing in as each demo role in Chromium', () => {

@@ -9,6 +9,7 @@ import { LibraryUnmatchedFootprint } from './library-unmatched.entity';
 import { LibraryVisionPreset } from './library-vision-preset.entity';
 import { MailMessage } from './mail-message.entity';
 import { ApiToken, ProblemReport, Program, ProgramRevision, ReleaseFile, RevisionComment, RevisionWaiver } from './program.entity';
+import { RevisionContributor } from './revision-contributor.entity';
 import { User } from './user.entity';
 
 export {
@@ -28,6 +29,7 @@ export {
   ProgramRevision,
   ReleaseFile,
   RevisionComment,
+  RevisionContributor,
   RevisionWaiver,
   User,
 };
@@ -52,6 +54,7 @@ export const entities = [
   ProgramRevision,
   RevisionWaiver,
   RevisionComment,
+  RevisionContributor,
   ReleaseFile,
   ApiToken,
   ProblemReport,

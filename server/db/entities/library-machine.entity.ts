@@ -2,11 +2,12 @@ import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, Update
 
 /** A placement machine's profile: reach and installed nozzles (mm). */
 @Entity({ name: 'library_machines' })
+// Names are unique without case: a unique index on lower(name), written in the migration.
+@Index('uq_library_machines_name_ci', { synchronize: false })
 export class LibraryMachine {
   @PrimaryGeneratedColumn('uuid')
   id!: string;
 
-  @Index('uq_library_machines_name', { unique: true })
   @Column({ type: 'varchar', length: 60 })
   name!: string;
 

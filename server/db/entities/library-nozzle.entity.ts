@@ -2,11 +2,12 @@ import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, Update
 
 /** A pick-up nozzle; diameters and holder radius in mm. */
 @Entity({ name: 'library_nozzles' })
+// Names are unique without case: a unique index on lower(name), written in the migration.
+@Index('uq_library_nozzles_name_ci', { synchronize: false })
 export class LibraryNozzle {
   @PrimaryGeneratedColumn('uuid')
   id!: string;
 
-  @Index('uq_library_nozzles_name', { unique: true })
   @Column({ type: 'varchar', length: 40 })
   name!: string;
 

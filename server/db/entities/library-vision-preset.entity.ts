@@ -3,11 +3,12 @@ import type { Lighting, VisionMethod } from '../../../shared/schemas/library.sch
 
 /** How the up-looking camera centres a part (our own fields). */
 @Entity({ name: 'library_vision_presets' })
+// Names are unique without case: a unique index on lower(name), written in the migration.
+@Index('uq_library_vision_presets_name_ci', { synchronize: false })
 export class LibraryVisionPreset {
   @PrimaryGeneratedColumn('uuid')
   id!: string;
 
-  @Index('uq_library_vision_presets_name', { unique: true })
   @Column({ type: 'varchar', length: 60 })
   name!: string;
 

@@ -1,12 +1,14 @@
-import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn, VersionColumn } from 'typeorm';
+import { BeforeInsert, BeforeUpdate, Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn, VersionColumn } from 'typeorm';
 
 /** A placement program: one product's board on one panel, with its revisions A, B, … */
 @Entity({ name: 'programs' })
+// Names are unique without case: a unique index on lower(name), written in the migration.
+@Index('uq_programs_name_ci', { synchronize: false })
 export class Program {
   @PrimaryGeneratedColumn('uuid')
   id!: string;
 
-  /** Short unique name, e.g. "weather-ctl" (the service keeps it unique case-insensitively). */
+  /** Short unique name, e.g. "weather-ctl" (unique without case: the service checks, an index enforces). */
   @Column({ type: 'varchar', length: 80 })
   name!: string;
 
@@ -69,6 +71,24 @@ export class ProgramRevision {
   /** The engine's import result (placements, mapping, dialect, warnings). */
   @Column({ type: 'jsonb', nullable: true })
   imported!: Record<string, unknown> | null;
+
+  /**
+   * Rows of the import that are placed (not do-not-place): what lists show, kept beside the
+   * import so that lists never read the import itself. Set from `imported` on every save.
+   */
+  @Column({ name: 'placement_count', type: 'integer', default: 0 })
+  placementCount!: number;
+
+  @BeforeInsert()
+  @BeforeUpdate()
+  countPlacements() {
+    // undefined: the import was not loaded (a partial select), so it is not being changed
+    if (this.imported === undefined) return;
+    const rows = (this.imported as { placements?: { dnp?: boolean }[] } | null)?.placements ?? [];
+    let n = 0;
+    for (const p of rows) if (!p.dnp) n++;
+    this.placementCount = n;
+  }
 
   /** Per-part overrides keyed by reference: { package?, nozzle?, vision?, reason }. */
   @Column({ type: 'jsonb', default: () => "'{}'" })

@@ -5,7 +5,7 @@ import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { signInInputSchema } from '../../../shared/schemas/auth.schema';
 import type { User } from '../../db/entities/user.entity';
-import { TooManyRequestsError, UnauthenticatedError } from '../../lib/errors';
+import { TooManyRequestsError, UnauthenticatedError, isDatabaseUnavailable } from '../../lib/errors';
 import type { ApiRoutes } from '../../lib/routes';
 import { validate } from '../../middleware/validate';
 import type { AuditActor, AuditService } from '../audit/audit.service';
@@ -37,7 +37,8 @@ export function configurePassport(users: UserService) {
     users
       .get(id)
       .then((u) => done(null, u.active ? u : false))
-      .catch(() => done(null, false));
+      // a user who is gone signs out; a database that does not answer is an error (503), not a sign-out
+      .catch((e: unknown) => (isDatabaseUnavailable(e) ? done(e) : done(null, false)));
   });
   return p;
 }

@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { Health } from '../../../shared/schemas/audit.schema';
+import { DATABASE_RETRY_AFTER_SECONDS } from '../../lib/errors';
 import type { ApiRoutes } from '../../lib/routes';
 
 const started = Date.now();
@@ -19,6 +20,8 @@ export function registerHealthRoutes(api: ApiRoutes, ds: DataSource, version: st
       version,
       uptimeSeconds: Math.round((Date.now() - started) / 1000),
     };
+    // Retry-After (RFC 9110, section 10.2.3): how long a load balancer or client should wait.
+    if (!ok) res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
     res.status(ok ? 200 : 503).json(body);
   });
 }

@@ -16,7 +16,7 @@ const TransferRoute = lazy(() => import('./transfer'));
 
 const page = (node: ReactNode) => <Suspense fallback={<div className="w-64"><ProgressBar label="Loading" /></div>}>{node}</Suspense>;
 
-/** The Library section (every signed-in role; what each may do is decided inside). */
+/** The Library section (engineers and librarians: the app's router guards it; what each may do is decided inside). */
 export const libraryRoute: RouteObject = {
   path: 'library',
   element: page(<LibraryLayout />),
