@@ -1,5 +1,5 @@
 import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
-import { useState, type ReactNode } from 'react';
+import { useState, type CSSProperties, type ReactNode } from 'react';
 import { Toaster } from 'sonner';
 import { createQueryClient } from '../lib/query-client';
 
@@ -8,7 +8,9 @@ export function AppProvider({ children, client }: { children: ReactNode; client?
   return (
     <QueryClientProvider client={qc}>
       {children}
-      <Toaster position="bottom-right" richColors closeButton />
+      {/* Toasts sit in the navigation column (bottom left, narrower than its 14rem), never over a
+          page's drawing or side panel. */}
+      <Toaster position="bottom-left" offset={12} style={{ '--width': '12.5rem' } as CSSProperties} richColors closeButton />
     </QueryClientProvider>
   );
 }

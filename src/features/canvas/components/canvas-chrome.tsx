@@ -12,29 +12,32 @@ export function frameName(run: RunResult): string {
   return run.side === 'bottom' ? 'bottom panel frame' : 'panel frame';
 }
 
+/** The side and frame, one line in the strip above the drawing. */
 export function SideBadge({ run }: { run: RunResult }) {
   return (
-    <div className="pointer-events-none absolute left-2 top-2 flex flex-col gap-0.5 rounded bg-ink-900/85 px-2 py-1 text-xs text-ink-100" data-testid="side-badge">
+    <div className="flex min-w-0 shrink items-baseline gap-2 truncate" data-testid="side-badge">
       <span className="font-semibold">{run.side === 'top' ? 'Top side · seen from above' : 'Bottom side · seen from below'}</span>
-      <span className="text-ink-400">drawn in the {frameName(run)}, X right, Y up</span>
+      <span className="truncate text-ink-400">drawn in the {frameName(run)}, X right, Y up</span>
     </div>
   );
 }
 
+/** The scale bar, in the strip below the drawing. */
 export function ScaleBar({ store }: { store: CanvasStore }) {
   const s = useCanvasState(store, (st) => st.view?.s ?? 0);
-  if (!s) return null;
+  if (!s) return <span />;
   const len = scaleBarLength(s, 120);
   const px = len * s;
   const text = len >= 1 ? `${len} mm` : `${len.toFixed(len < 0.1 ? 2 : 1)} mm`;
   return (
-    <div className="flex flex-col items-start rounded bg-ink-900/85 px-2 py-1" aria-label={`Scale bar: ${text}`} role="img">
-      <span className="num text-2xs text-ink-100">{text}</span>
+    <div className="flex items-center gap-2" aria-label={`Scale bar: ${text}`} role="img">
       <div className="h-1.5 border-x-2 border-b-2 border-ink-100" style={{ width: px }} />
+      <span className="num text-2xs text-ink-100">{text}</span>
     </div>
   );
 }
 
+/** Cursor coordinates and their frame, in the strip below the drawing. */
 export function CursorReadout({ store, scene }: { store: CanvasStore; scene: Scene }) {
   const cursor = useCanvasState(store, (s) => s.cursor);
   const frame = useCanvasState(store, (s) => s.cursorFrame);
@@ -43,8 +46,8 @@ export function CursorReadout({ store, scene }: { store: CanvasStore; scene: Sce
   const p = cursor && map ? applyAffine(map, cursor.x, cursor.y) : null;
   const frameLabel = frame === 'panel' ? (scene.run.side === 'bottom' ? 'bottom panel frame' : 'panel frame') : 'machine frame';
   return (
-    <div className="absolute bottom-2 right-2 flex items-center gap-2 rounded bg-ink-900/85 px-2 py-1 text-xs text-ink-100">
-      <span className="num min-w-[17rem] text-right" aria-live="off" data-testid="cursor-readout">
+    <div className="flex items-center gap-2 text-xs text-ink-100">
+      <span className="num min-w-[17rem] whitespace-pre text-right" aria-live="off" data-testid="cursor-readout">
         {p ? `X ${p.x.toFixed(3)} mm  Y ${p.y.toFixed(3)} mm` : cursor && !map ? 'not measured: no fiducial transform' : 'X —  Y —'}
       </span>
       <label htmlFor={id} className="sr-only">
@@ -117,19 +120,19 @@ export const SHORTCUTS: [string, string][] = [
 export function HelpPopover({ open, onOpenChange, canNote }: { open: boolean; onOpenChange: (o: boolean) => void; canNote: boolean }) {
   const id = useId();
   return (
-    <div className="absolute right-2 top-2 z-30 flex flex-col items-end">
+    <div className="relative ml-auto flex shrink-0 flex-col items-end">
       <button
         type="button"
         aria-label="Keyboard shortcuts"
         aria-expanded={open}
         aria-controls={id}
         onClick={() => onOpenChange(!open)}
-        className="h-7 w-7 rounded-full bg-ink-800 text-sm font-semibold text-ink-100 hover:bg-ink-700"
+        className="h-6 w-6 rounded-full bg-ink-700 text-sm font-semibold text-ink-100 hover:bg-ink-600"
       >
         ?
       </button>
       {open && (
-        <div id={id} role="dialog" aria-label="Keyboard shortcuts" className="mt-1 w-80 rounded border border-ink-600 bg-ink-900/95 p-3 text-xs text-ink-100 shadow-xl">
+        <div id={id} role="dialog" aria-label="Keyboard shortcuts" className="absolute right-0 top-full z-30 mt-1.5 w-80 rounded border border-ink-600 bg-ink-900/95 p-3 text-xs text-ink-100 shadow-xl">
           <p className="mb-2 font-semibold">Keys (click the canvas first)</p>
           <table className="w-full">
             <tbody>

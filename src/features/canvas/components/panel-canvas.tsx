@@ -65,6 +65,9 @@ const signedTurn = (d: number) => {
 
 const DIRTY_UNDERLAY = 1, DIRTY_BASE = 2, DIRTY_BODIES = 4, DIRTY_OVERLAY = 8, DIRTY_ALL = 15;
 const CLICK_SLOP = 4;
+/** Height of the strips above and below the drawing (px); the component is `height` + 2 strips + 2 px of border. */
+export const CANVAS_STRIP_PX = 32;
+export const CANVAS_CHROME_PX = 2 * CANVAS_STRIP_PX + 2;
 
 export function PanelCanvas({
   run,
@@ -542,51 +545,57 @@ export function PanelCanvas({
   const cursorStyle = tool === 'select' ? (drag.current?.mode === 'pan' ? 'grabbing' : 'default') : 'crosshair';
   const sideText = run.side === 'top' ? 'Top side, seen from above' : 'Bottom side, seen from below';
   return (
-    <div className="relative select-none overflow-hidden rounded border border-ink-700" style={{ height, background: CANVAS_COLORS.background }}>
-      <div
-        ref={containerRef}
-        role="application"
-        aria-label={label ?? `Panel canvas: ${sideText}. Press ? for keyboard shortcuts.`}
-        aria-roledescription="panel canvas"
-        tabIndex={0}
-        data-testid="panel-canvas"
-        data-side={run.side}
-        className="absolute inset-0 outline-none focus-visible:ring-2 focus-visible:ring-copper-400"
-        style={{ cursor: cursorStyle, touchAction: 'none' }}
-        onPointerDown={onPointerDown}
-        onPointerMove={onPointerMove}
-        onPointerUp={onPointerUp}
-        onPointerLeave={onPointerLeave}
-        onKeyDown={onKeyDown}
-      >
-        <Stage width={width} height={height} listening={false}>
-          <Layer ref={layerRefs.underlay} listening={false}>
-            <Shape sceneFunc={sceneUnderlay} listening={false} perfectDrawEnabled={false} />
-          </Layer>
-          <Layer ref={layerRefs.base} listening={false}>
-            <Shape sceneFunc={sceneBase} listening={false} perfectDrawEnabled={false} />
-          </Layer>
-          <Layer ref={layerRefs.bodies} listening={false}>
-            <Shape sceneFunc={sceneBodies} listening={false} perfectDrawEnabled={false} />
-          </Layer>
-          <Layer ref={layerRefs.overlay} listening={false}>
-            <Shape sceneFunc={sceneOverlay} listening={false} perfectDrawEnabled={false} />
-          </Layer>
-        </Stage>
+    // A strip above and below the drawing holds its chrome (side and frame, alignment status, help;
+    // scale bar and cursor read-out), so that nothing covers the drawing's working area.
+    <div className="flex select-none flex-col overflow-hidden rounded border border-ink-700" style={{ background: CANVAS_COLORS.background }}>
+      <div className="relative flex items-center gap-3 border-b border-ink-800 bg-ink-900 px-2 text-xs text-ink-100" style={{ height: CANVAS_STRIP_PX }}>
+        <SideBadge run={run} />
+        {(alignStep || alignError) && (
+          <span role="status" className={`min-w-0 truncate rounded px-2 py-0.5 ${alignError ? 'bg-sev-error text-white' : 'bg-copper-700 text-white'}`}>
+            {alignError ?? alignStep}
+          </span>
+        )}
+        <HelpPopover open={helpOpen} onOpenChange={setHelpOpen} canNote={!!onAddNote} />
       </div>
-      <SideBadge run={run} />
-      <HelpPopover open={helpOpen} onOpenChange={setHelpOpen} canNote={!!onAddNote} />
-      <HoverCard store={store} scene={scene} pos={hoverXY} width={width} height={height} />
-      <div className="pointer-events-none absolute bottom-2 left-2 flex items-end gap-3">
-        <ScaleBar store={store} />
-      </div>
-      <CursorReadout store={store} scene={scene} />
-      {pendingNote && <NoteEditor store={store} at={pendingNote} onSubmit={submitNote} onCancel={() => submitNote('')} />}
-      {(alignStep || alignError) && (
-        <div role="status" className={`absolute left-1/2 top-2 -translate-x-1/2 rounded px-3 py-1.5 text-xs shadow ${alignError ? 'bg-sev-error text-white' : 'bg-ink-800 text-ink-50'}`}>
-          {alignError ?? alignStep}
+      <div className="relative" style={{ height }}>
+        <div
+          ref={containerRef}
+          role="application"
+          aria-label={label ?? `Panel canvas: ${sideText}. Press ? for keyboard shortcuts.`}
+          aria-roledescription="panel canvas"
+          tabIndex={0}
+          data-testid="panel-canvas"
+          data-side={run.side}
+          className="absolute inset-0 outline-none focus-visible:ring-2 focus-visible:ring-inset focus-visible:ring-copper-400"
+          style={{ cursor: cursorStyle, touchAction: 'none' }}
+          onPointerDown={onPointerDown}
+          onPointerMove={onPointerMove}
+          onPointerUp={onPointerUp}
+          onPointerLeave={onPointerLeave}
+          onKeyDown={onKeyDown}
+        >
+          <Stage width={width} height={height} listening={false}>
+            <Layer ref={layerRefs.underlay} listening={false}>
+              <Shape sceneFunc={sceneUnderlay} listening={false} perfectDrawEnabled={false} />
+            </Layer>
+            <Layer ref={layerRefs.base} listening={false}>
+              <Shape sceneFunc={sceneBase} listening={false} perfectDrawEnabled={false} />
+            </Layer>
+            <Layer ref={layerRefs.bodies} listening={false}>
+              <Shape sceneFunc={sceneBodies} listening={false} perfectDrawEnabled={false} />
+            </Layer>
+            <Layer ref={layerRefs.overlay} listening={false}>
+              <Shape sceneFunc={sceneOverlay} listening={false} perfectDrawEnabled={false} />
+            </Layer>
+          </Stage>
         </div>
-      )}
+        <HoverCard store={store} scene={scene} pos={hoverXY} width={width} height={height} />
+        {pendingNote && <NoteEditor store={store} at={pendingNote} onSubmit={submitNote} onCancel={() => submitNote('')} />}
+      </div>
+      <div className="flex items-center justify-between gap-3 border-t border-ink-800 bg-ink-900 px-2 text-xs text-ink-100" style={{ height: CANVAS_STRIP_PX }}>
+        <ScaleBar store={store} />
+        <CursorReadout store={store} scene={scene} />
+      </div>
     </div>
   );
 }

@@ -10,7 +10,7 @@ import { CanvasStore, useCanvasState } from '../store';
 import type { CanvasNote, NewNote, UnderlayState } from '../types';
 import { FindingsTable } from './findings-table';
 import { LayerToggles } from './layer-toggles';
-import { PanelCanvas, type DrawStats } from './panel-canvas';
+import { CANVAS_CHROME_PX, PanelCanvas, type DrawStats } from './panel-canvas';
 import { PlacementTable } from './placement-table';
 import { CommentsList, Filters, MeasureReadout, SideSwitch, ToolBar, UnderlayControls } from './review-panels';
 
@@ -98,15 +98,23 @@ export function PanelReview({
 
   return (
     <div className="flex flex-col gap-3" data-testid="panel-review">
-      <div className="flex flex-wrap items-center gap-3">
+      {/* One line that never wraps: the "Mark checked" button has its place kept (hidden while
+          nothing is selected) and the caption shortens, so a selection never moves the canvas. */}
+      <div className="flex h-9 flex-nowrap items-center gap-3" data-testid="canvas-toolbar">
         <SideSwitch side={side} sides={[...sides]} onChange={setSide} />
         <ToolBar store={store} canNote={!!onAddComment} />
-        {onToggleChecked && selKeys.length > 0 && (
-          <Button variant="secondary" className="px-2.5 py-1" onClick={() => onToggleChecked(selKeys, !selKeys.every((k) => checked.has(k)))}>
-            {selKeys.every((k) => checked.has(k)) ? 'Untick' : 'Mark checked'}: {selKeys.length} selected finding{selKeys.length === 1 ? '' : 's'}
+        {onToggleChecked && (
+          <Button
+            variant="secondary"
+            className={`min-w-[15.5rem] shrink-0 whitespace-nowrap px-2.5 py-1 ${selKeys.length === 0 ? 'invisible' : ''}`}
+            aria-hidden={selKeys.length === 0 || undefined}
+            tabIndex={selKeys.length === 0 ? -1 : undefined}
+            onClick={() => onToggleChecked(selKeys, !selKeys.every((k) => checked.has(k)))}
+          >
+            {selKeys.length > 0 && selKeys.every((k) => checked.has(k)) ? 'Untick' : 'Mark checked'}: {selKeys.length} selected finding{selKeys.length === 1 ? '' : 's'}
           </Button>
         )}
-        <span className="ml-auto text-xs text-ink-500">
+        <span className="ml-auto min-w-0 truncate text-xs text-ink-500" title={`${run.program ?? 'program'} ${run.revision ? `rev ${run.revision}` : ''} · ${run.boardsPlaced} boards · ${run.placements.count} placements on this side`}>
           {run.program ?? 'program'} {run.revision ? `rev ${run.revision}` : ''} · {run.boardsPlaced} boards · {run.placements.count} placements on this side
         </span>
       </div>
@@ -124,7 +132,7 @@ export function PanelReview({
           height={canvasHeight}
           onDraw={onDraw}
         />
-        <aside aria-label="Canvas controls" className="flex flex-col gap-4 overflow-y-auto rounded border border-ink-200 bg-ink-50 p-3" style={{ maxHeight: canvasHeight }}>
+        <aside aria-label="Canvas controls" className="flex flex-col gap-4 overflow-y-auto rounded border border-ink-200 bg-ink-50 p-3" style={{ maxHeight: canvasHeight + CANVAS_CHROME_PX }}>
           <LayerToggles store={store} hasUnderlay={!!underlay} />
           <Filters store={store} run={run} findings={sideFindings} />
           <MeasureReadout store={store} scene={scene} />
