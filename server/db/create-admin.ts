@@ -1,4 +1,5 @@
 import { createInterface } from 'node:readline/promises';
+import { passwordStrength } from '../../shared/password-strength';
 import { createUserInputSchema } from '../../shared/schemas/auth.schema';
 import { AuditService } from '../modules/audit/audit.service';
 import { UserService } from '../modules/users/user.service';
@@ -15,11 +16,16 @@ if (!email || !name || !url) {
   process.exit(2);
 }
 const rl = createInterface({ input: process.stdin, output: process.stderr, terminal: false });
-const password = (await rl.question('Password (at least 10 characters): ')).trim();
+const password = (await rl.question('Password (at least 10 characters, hard to guess: a few unrelated words work well): ')).trim();
 rl.close();
 const input = createUserInputSchema.safeParse({ email, name, roles: ['admin'], password });
 if (!input.success) {
   for (const i of input.error.issues) console.error(`${i.path.join('.')}: ${i.message}`);
+  process.exit(2);
+}
+const strength = passwordStrength(input.data.password, [input.data.email, input.data.name]);
+if (!strength.ok) {
+  console.error(`password: ${strength.message}`);
   process.exit(2);
 }
 const ds = createDataSource(url);

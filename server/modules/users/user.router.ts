@@ -40,7 +40,7 @@ export function registerUserRoutes(api: ApiRoutes, users: UserService) {
   });
 
   api.post('/me/password', 'signed-in', validate(changeOwnPasswordSchema), async (req, res) => {
-    await users.changeOwnPassword(req.user!, req.body.currentPassword, req.body.newPassword, req.ip ?? null);
+    await users.changeOwnPassword(req.user!, req.body.currentPassword, req.body.newPassword, req.ip ?? null, req.sessionID);
     res.status(204).end();
   });
 }

@@ -2,7 +2,8 @@ import bcrypt from 'bcryptjs';
 import type { DataSource } from 'typeorm';
 import type { CreateUserInput, Role, UpdateUserInput, UserDto } from '../../../shared/schemas/auth.schema';
 import { User } from '../../db/entities/user.entity';
-import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
+import { passwordStrength } from '../../../shared/password-strength';
+import { BadRequestError, ConflictError, NotFoundError, ValidationError } from '../../lib/errors';
 import type { AuditActor, AuditService } from '../audit/audit.service';
 
 /** bcrypt cost 12 (OWASP Password Storage Cheat Sheet asks for at least 10). */
@@ -19,6 +20,15 @@ export function toUserDto(u: User): UserDto {
     createdAt: u.createdAt.toISOString(),
     version: u.version,
   };
+}
+
+/**
+ * Refuses a password that is easy to guess (the zxcvbn estimator, minimum score 3 of 4), naming
+ * the field and saying why and what would help. The person's e-mail and name count as guessable.
+ */
+export function assertStrongPassword(password: string, field: string, knownToOthers: string[]): void {
+  const s = passwordStrength(password, knownToOthers);
+  if (!s.ok) throw new ValidationError(s.message, [{ path: field, message: [s.warning, ...s.suggestions].filter(Boolean).join(' ') || `Too easy to guess (${s.label})` }]);
 }
 
 export class UserService {
@@ -53,6 +63,7 @@ export class UserService {
         { path: 'email', message: 'Already in use' },
       ]);
     }
+    assertStrongPassword(input.password, 'password', [input.email, input.name]);
     const passwordHash = await bcrypt.hash(input.password, BCRYPT_COST);
     const user = await this.ds.transaction(async (m) => {
       const u = m.getRepository(User).create({ email: input.email, name: input.name, roles: dedupe(input.roles), passwordHash, active: true });
@@ -94,6 +105,8 @@ export class UserService {
   }
 
   async resetPassword(id: string, password: string, actor: AuditActor, ip: string | null = null): Promise<void> {
+    const target = await this.get(id);
+    assertStrongPassword(password, 'password', [target.email, target.name]);
     const passwordHash = await bcrypt.hash(password, BCRYPT_COST);
     await this.ds.transaction(async (m) => {
       const u = await m.getRepository(User).findOneBy({ id });
@@ -105,14 +118,20 @@ export class UserService {
     });
   }
 
-  async changeOwnPassword(user: User, current: string, next: string, ip: string | null): Promise<void> {
+  /**
+   * Changes one's own password and ends the user's other sessions (other browsers and devices
+   * must sign in again with the new password); `keepSessionId`, the session making the change, stays.
+   */
+  async changeOwnPassword(user: User, current: string, next: string, ip: string | null, keepSessionId?: string): Promise<void> {
     if (!(await bcrypt.compare(current, user.passwordHash))) {
       throw new BadRequestError('The current password is not right.', [{ path: 'currentPassword', message: 'Not right' }]);
     }
+    assertStrongPassword(next, 'newPassword', [user.email, user.name]);
     const passwordHash = await bcrypt.hash(next, BCRYPT_COST);
     await this.ds.transaction(async (m) => {
       await m.getRepository(User).update({ id: user.id }, { passwordHash });
-      await this.audit.record({ id: user.id, email: user.email }, 'user.password-change', user.email, {}, ip, m);
+      const ended: unknown[] = await m.query(`DELETE FROM "session" WHERE sess->'passport'->>'user' = $1 AND sid IS DISTINCT FROM $2 RETURNING sid`, [user.id, keepSessionId ?? null]);
+      await this.audit.record({ id: user.id, email: user.email }, 'user.password-change', user.email, { otherSessionsEnded: ended.length }, ip, m);
     });
   }
 

@@ -7,6 +7,8 @@ import { newPasswordSchema } from '../../../shared/schemas/auth.schema';
 import { Button } from '../../components/ui/button';
 import { TextField } from '../../components/ui/field';
 import { PageHeader } from '../../components/ui/misc';
+import { PasswordStrengthNote, usePasswordStrength } from '../../features/users/components/password-strength';
+import { useMe } from '../../features/auth/api/get-me';
 import { api, ApiError } from '../../lib/api-client';
 
 const schema = z
@@ -33,12 +35,15 @@ export default function AccountRoute() {
     }),
   );
   const e = form.formState.errors;
+  const me = useMe();
+  const strength = usePasswordStrength(form.watch('newPassword'), me.data ? [me.data.user.email, me.data.user.name] : []);
   return (
     <div className="max-w-md">
       <PageHeader title="Account" subtitle="Change your password" />
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3 rounded border border-ink-200 bg-white p-5">
         <TextField label="Current password" type="password" autoComplete="current-password" error={e.currentPassword?.message} {...form.register('currentPassword')} />
-        <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={e.newPassword?.message} {...form.register('newPassword')} />
+        <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters and hard to guess: a few unrelated words work well. Your other sessions end when you change it." error={e.newPassword?.message} {...form.register('newPassword')} />
+        <PasswordStrengthNote strength={strength} />
         <TextField label="Repeat new password" type="password" autoComplete="new-password" error={e.repeat?.message} {...form.register('repeat')} />
         <Button type="submit" disabled={change.isPending}>{change.isPending ? 'Saving…' : 'Change password'}</Button>
       </form>

@@ -9,6 +9,7 @@ import { DataTable } from '../../../components/ui/data-table';
 import { TextField } from '../../../components/ui/field';
 import { Badge, ErrorPanel, PageHeader, ProgressBar } from '../../../components/ui/misc';
 import { useCreateUser, useResetPassword, useUpdateUser, useUsers } from '../../../features/users/api/users';
+import { PasswordStrengthNote, usePasswordStrength } from '../../../features/users/components/password-strength';
 import { ApiError } from '../../../lib/api-client';
 import { dateTime } from '../../../lib/format';
 
@@ -52,6 +53,7 @@ function CreateUserForm({ onDone }: { onDone: () => void }) {
   const form = useForm<CreateUserInput>({ resolver: zodResolver(createUserInputSchema), defaultValues: { email: '', name: '', roles: ['engineer'], password: '' } });
   const roles = form.watch('roles');
   const e = form.formState.errors;
+  const strength = usePasswordStrength(form.watch('password'), [form.watch('email'), form.watch('name')]);
   const onSubmit = form.handleSubmit((v) =>
     create.mutate(v, {
       onSuccess: (u) => {
@@ -68,7 +70,10 @@ function CreateUserForm({ onDone }: { onDone: () => void }) {
     <form onSubmit={onSubmit} noValidate aria-label="New user" className="mb-6 grid grid-cols-2 gap-3 rounded border border-ink-200 bg-white p-4">
       <TextField label="Name" error={e.name?.message} {...form.register('name')} />
       <TextField label="E-mail" type="email" error={e.email?.message} {...form.register('email')} />
-      <TextField label="First password" type="password" autoComplete="new-password" hint="At least 10 characters; they can change it under Account." error={e.password?.message} {...form.register('password')} />
+      <div className="flex flex-col gap-1">
+        <TextField label="First password" type="password" autoComplete="new-password" hint="At least 10 characters and hard to guess; they can change it under Account." error={e.password?.message} {...form.register('password')} />
+        <PasswordStrengthNote strength={strength} />
+      </div>
       <div>
         <RoleChecks legend="Roles" value={roles} onChange={(r) => form.setValue('roles', r, { shouldValidate: true })} />
         {e.roles && <p role="alert" className="mt-1 text-xs text-sev-error">{e.roles.message}</p>}
@@ -87,6 +92,7 @@ function EditUser({ user, onClose }: { user: UserDto; onClose: () => void }) {
   const [name, setName] = useState(user.name);
   const [roles, setRoles] = useState<Role[]>(user.roles);
   const [password, setPassword] = useState('');
+  const strength = usePasswordStrength(password, [user.email, user.name]);
   const save = (patch: { name?: string; roles?: Role[]; active?: boolean }) =>
     update.mutate(
       { id: user.id, version: user.version, ...patch },
@@ -105,10 +111,13 @@ function EditUser({ user, onClose }: { user: UserDto; onClose: () => void }) {
         <Button variant="ghost" onClick={onClose}>Close</Button>
       </div>
       <div className="flex items-end gap-2 border-t border-ink-100 pt-3">
-        <TextField label="New password" type="password" autoComplete="new-password" value={password} onChange={(e) => setPassword(e.target.value)} hint="At least 10 characters; signs them out everywhere." />
+        <div className="flex flex-col gap-1">
+          <TextField label="New password" type="password" autoComplete="new-password" value={password} onChange={(e) => setPassword(e.target.value)} hint="At least 10 characters and hard to guess; signs them out everywhere." />
+          <PasswordStrengthNote strength={strength} />
+        </div>
         <Button
           variant="secondary"
-          disabled={password.length < 10 || reset.isPending}
+          disabled={password.length < 10 || !strength?.ok || reset.isPending}
           onClick={() => reset.mutate({ id: user.id, password }, { onSuccess: () => { toast.success('Password reset.'); setPassword(''); }, onError: (err) => toast.error(err.message) })}
         >
           Reset password
