@@ -16,7 +16,8 @@ export const checkCommand: Command = {
 Runs the job for the side(s) and checks every placed part (do-not-place parts are never checked):
   error    body-overlap, off-board, board-overlap, off-panel, fiducial-clearance,
            out-of-reach, no-package, no-nozzle
-  warning  courtyard-overlap, nozzle-shadow, off-board of a package marked overhang
+  warning  courtyard-overlap, nozzle-shadow, nozzle-size (the nozzle tip is wider than the
+           body's smaller side), off-board of a package marked overhang
 Prints { "findings": [ { key, kind, severity, side, board, boards, refs, message, geometry,
 depth, distance } ], "summary": { errors, warnings, placements, seconds } }. refs are
 "BOARD:REF", sorted by board number, then reference in natural order. Coordinates are in the

@@ -25,6 +25,8 @@ export interface Assignment {
   matchedBy: MatchedBy | 'override';
   nozzle: string | null;
   holderRadius: number | null;
+  /** the nozzle tip's outer diameter, mm (null: no nozzle, or one the library does not list) */
+  tipOuter: number | null;
   vision: string | null;
 }
 
@@ -165,10 +167,10 @@ export class Assigner {
   }
 
   private forPackage(pkg: LibraryPackage | null, by: Assignment['matchedBy']): Assignment {
-    if (!pkg) return { pkg: null, matchedBy: null, nozzle: null, holderRadius: null, vision: null };
+    if (!pkg) return { pkg: null, matchedBy: null, nozzle: null, holderRadius: null, tipOuter: null, vision: null };
     const chosen = chooseNozzle(pkg, this.library?.nozzles ?? [], this.machineNozzles);
     const n = chosen ? this.nozzles.get(nameKey(chosen)) : undefined;
-    return { pkg, matchedBy: by, nozzle: n ? n.name : chosen, holderRadius: n ? n.holderRadius : null, vision: pkg.vision ?? null };
+    return { pkg, matchedBy: by, nozzle: n ? n.name : chosen, holderRadius: n ? n.holderRadius : null, tipOuter: n ? n.tipOuter : null, vision: pkg.vision ?? null };
   }
 
   /** The assignment of a footprint, ignoring overrides. */
@@ -193,7 +195,7 @@ export class Assigner {
     }
     if (o.nozzle !== undefined) {
       const n = this.nozzles.get(nameKey(o.nozzle));
-      if (n) a = { ...a, nozzle: n.name, holderRadius: n.holderRadius };
+      if (n) a = { ...a, nozzle: n.name, holderRadius: n.holderRadius, tipOuter: n.tipOuter };
       else this.problems.push({ ref, field: 'nozzle', message: `override of ${ref}: no nozzle named "${o.nozzle}" in the library; the chosen nozzle is kept` });
     }
     if (o.vision !== undefined) {

@@ -54,9 +54,9 @@ const EMPTY_I32 = new Int32Array(0);
  * and nullable text columns null, side 'top'. With `text` false only x, y and rotation are
  * allocated; the caller defines the others as derived columns (defineLazyColumns). */
 export function allocatePlacementColumns(n: number, text = true): PlacementColumns {
-  // one buffer for the ten Float64 columns and one for the three Int32 columns: few large
+  // one buffer for the eleven Float64 columns and one for the three Int32 columns: few large
   // allocations instead of many (the columns are views; each has its own length n)
-  const f64 = new ArrayBuffer(8 * n * (text ? 10 : 3));
+  const f64 = new ArrayBuffer(8 * n * (text ? 11 : 3));
   const i32 = new ArrayBuffer(text ? 4 * n * 3 : 0);
   let fi = 0;
   let ii = 0;
@@ -85,6 +85,7 @@ export function allocatePlacementColumns(n: number, text = true): PlacementColum
     courtyard: g(),
     overhang: text ? new Uint8Array(n) : new Uint8Array(0),
     holderRadius: nan(),
+    nozzleTip: nan(),
     partNumber: t(''),
     value: t(''),
     footprint: t(''),
@@ -96,7 +97,7 @@ export function allocatePlacementColumns(n: number, text = true): PlacementColum
  * from x, y and rotation (originX/Y): everything but x, y and rotation. */
 export type RepeatedColumn =
   | 'ref' | 'side' | 'partNumber' | 'value' | 'footprint' | 'packageName' | 'nozzle' | 'vision'
-  | 'bodyLength' | 'bodyWidth' | 'bodyHeight' | 'courtyard' | 'overhang' | 'holderRadius'
+  | 'bodyLength' | 'bodyWidth' | 'bodyHeight' | 'courtyard' | 'overhang' | 'holderRadius' | 'nozzleTip'
   | 'seq' | 'board' | 'sourceIndex' | 'originX' | 'originY';
 
 /**

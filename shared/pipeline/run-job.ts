@@ -160,7 +160,7 @@ export function runJob(input: RunJobInput): RunResult {
   const sx = new Float64Array(m), sy = new Float64Array(m), srot = new Float64Array(m);
   const offX = new Float64Array(m), offY = new Float64Array(m), hasOff = new Uint8Array(m);
   const pl = new Float64Array(m).fill(NaN), pw = new Float64Array(m).fill(NaN), ph = new Float64Array(m).fill(NaN);
-  const court = new Float64Array(m), over = new Uint8Array(m), holder = new Float64Array(m).fill(NaN);
+  const court = new Float64Array(m), over = new Uint8Array(m), holder = new Float64Array(m).fill(NaN), tip = new Float64Array(m).fill(NaN);
   const pkgName: (string | null)[] = [], nozzle: (string | null)[] = [], vision: (string | null)[] = [];
   const partIndex = Int32Array.from(parts);
   const unmatched = new Map<string, UnmatchedFootprint>();
@@ -181,6 +181,7 @@ export function runJob(input: RunJobInput): RunResult {
       court[j] = a.pkg.courtyard ?? DEFAULT_COURTYARD;
       over[j] = a.pkg.overhang ? 1 : 0;
       if (a.holderRadius !== null) holder[j] = a.holderRadius;
+      if (a.tipOuter !== null) tip[j] = a.tipOuter;
     } else {
       court[j] = DEFAULT_COURTYARD;
       const u = unmatched.get(fp) ?? { footprint: fp, count: 0, placements: 0, refs: [] };
@@ -225,6 +226,7 @@ export function runJob(input: RunJobInput): RunResult {
     courtyard: () => repeatTyped(court, B),
     overhang: () => repeatTyped(over, B),
     holderRadius: () => repeatTyped(holder, B),
+    nozzleTip: () => repeatTyped(tip, B),
     seq: () => {
       const a = new Int32Array(total);
       for (let i = 0; i < total; i++) a[i] = i + 1;

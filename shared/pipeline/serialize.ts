@@ -2,7 +2,7 @@
 // server's API and by the client to rebuild the struct of arrays the canvas draws from.
 import type { PlacementColumns, RunResult } from './types';
 
-const F64 = ['x', 'y', 'originX', 'originY', 'rotation', 'bodyLength', 'bodyWidth', 'bodyHeight', 'courtyard', 'holderRadius'] as const;
+const F64 = ['x', 'y', 'originX', 'originY', 'rotation', 'bodyLength', 'bodyWidth', 'bodyHeight', 'courtyard', 'holderRadius', 'nozzleTip'] as const;
 const I32 = ['seq', 'board', 'sourceIndex'] as const;
 const U8 = ['overhang'] as const;
 const TEXT = ['ref', 'side', 'packageName', 'nozzle', 'vision', 'partNumber', 'value', 'footprint'] as const;

@@ -67,6 +67,8 @@ export interface PlacementColumns {
   overhang: Uint8Array;
   /** nozzle holder radius, mm; NaN where no nozzle (null in the record view) */
   holderRadius: Float64Array;
+  /** outer diameter of the nozzle's tip, mm; NaN where no nozzle or the library does not know it */
+  nozzleTip: Float64Array;
   partNumber: string[];
   value: string[];
   footprint: string[];

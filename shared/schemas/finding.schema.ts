@@ -12,6 +12,7 @@ export const FINDING_KINDS = [
   'out-of-reach',
   'no-package',
   'no-nozzle',
+  'nozzle-size',
 ] as const;
 
 export const findingKindSchema = z.enum(FINDING_KINDS);
@@ -27,7 +28,7 @@ export const findingGeometrySchema = z.discriminatedUnion('type', [
   /** an area: the common part of two overlapping bodies / courtyards / boards, or the outline of a
    * body or board that leaves its board or panel, or the panel outline */
   z.object({ type: z.literal('polygon'), points: z.array(pairSchema).min(3) }),
-  /** a place: a body centre (out of reach, no package, no nozzle) */
+  /** a place: a body centre (out of reach, no package, no nozzle, nozzle size) */
   z.object({ type: z.literal('point'), x: z.number(), y: z.number() }),
   /** a gap: from a fiducial centre or a part centre to the nearest point of a body */
   z.object({ type: z.literal('segment'), from: pairSchema, to: pairSchema }),
@@ -50,7 +51,8 @@ export const findingSchema = z.object({
   message: z.string().min(1),
   geometry: findingGeometrySchema,
   /** how far into the forbidden area, mm: overlap depth, distance outside the board / panel /
-   * reach, shortfall of a clearance; null where it does not apply (no package, no nozzle) */
+   * reach, shortfall of a clearance, how much wider the nozzle tip is than the body's smaller
+   * side; null where it does not apply (no package, no nozzle) */
   depth: z.number().nonnegative().nullable(),
   /** an actual distance, mm: bodies' gap (courtyard), body to fiducial centre, part centre to
    * the taller neighbour; null where it does not apply */

@@ -30,6 +30,9 @@ export interface PartSpec {
   courtyard?: number;
   /** default 0 (no shadow check) */
   holderRadius?: number;
+  /** nozzle tip outer diameter, default 0 (no nozzle-size check) */
+  tipOuter?: number;
+  nozzle?: string | null;
   overhang?: boolean;
   /** default true */
   hasPackage?: boolean;
@@ -63,6 +66,8 @@ export function makeVerifyInput(parts: PartSpec[], layout: LayoutSpec = {}): Ver
     height: f64(),
     courtyard: f64(),
     holderRadius: f64(),
+    tipOuter: f64(),
+    nozzle: parts.map((p) => p.nozzle ?? null),
     overhang: u8(),
     hasPackage: u8(),
     hasNozzle: u8(),
@@ -83,6 +88,7 @@ export function makeVerifyInput(parts: PartSpec[], layout: LayoutSpec = {}): Ver
     input.height[i] = p.height ?? 1;
     input.courtyard[i] = p.courtyard ?? 0.25;
     input.holderRadius[i] = p.holderRadius ?? 0;
+    input.tipOuter![i] = p.tipOuter ?? 0;
     input.overhang[i] = p.overhang ? 1 : 0;
     input.hasPackage[i] = p.hasPackage === false ? 0 : 1;
     input.hasNozzle[i] = p.hasNozzle === false ? 0 : 1;

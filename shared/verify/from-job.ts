@@ -4,7 +4,8 @@
 // - Body: centre = the run's x, y (placement point + turned body offset), turned by the output
 //   rotation; L × W from the package. A part without a package becomes a point body with no
 //   courtyard (it cannot overlap anything; it is reported as no-package).
-// - A part without a nozzle gets holder radius 0 (no shadow test for it; reported as no-nozzle).
+// - A part without a nozzle gets holder radius 0 (no shadow test for it; reported as no-nozzle)
+//   and tip diameter 0 (no nozzle-size test).
 // - Do-not-place parts are not in a run's placements, so they are never checked.
 // - Skipped boards place nothing and are left out of the board layout checks.
 import type { Quad, RunResult } from '../pipeline/types';
@@ -43,6 +44,8 @@ export function verifyInputFromRuns(runs: RunResult[]): VerifyInput {
     height: new Float64Array(n),
     courtyard: new Float64Array(n),
     holderRadius: new Float64Array(n),
+    tipOuter: new Float64Array(n),
+    nozzle: new Array(n),
     overhang: new Uint8Array(n),
     hasPackage: new Uint8Array(n),
     hasNozzle: new Uint8Array(n),
@@ -77,6 +80,8 @@ export function verifyInputFromRuns(runs: RunResult[]): VerifyInput {
       input.height[k] = matched ? num(p.bodyHeight[i]) : 0;
       input.courtyard[k] = matched ? num(p.courtyard[i]) : 0;
       input.holderRadius[k] = p.nozzle[i] !== null ? num(p.holderRadius[i]) : 0;
+      input.tipOuter![k] = p.nozzle[i] !== null ? num(p.nozzleTip[i]) : 0;
+      input.nozzle![k] = p.nozzle[i];
     }
     at += p.count;
     for (const b of r.boards) {

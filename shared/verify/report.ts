@@ -26,6 +26,7 @@ import {
   K_FIDUCIAL,
   K_NO_NOZZLE,
   K_NO_PACKAGE,
+  K_NOZZLE_SIZE,
   K_OFF_BOARD,
   K_OFF_PANEL,
   K_OVERHANG,
@@ -51,6 +52,7 @@ RAW[K_REACH] = { kind: 'out-of-reach', severity: 'error' };
 RAW[K_PANEL_REACH] = { kind: 'out-of-reach', severity: 'error' };
 RAW[K_NO_PACKAGE] = { kind: 'no-package', severity: 'error' };
 RAW[K_NO_NOZZLE] = { kind: 'no-nozzle', severity: 'error' };
+RAW[K_NOZZLE_SIZE] = { kind: 'nozzle-size', severity: 'warning' };
 
 const KIND_RANK = new Map<FindingKind, number>(FINDING_KINDS.map((k, i) => [k, i]));
 /** First sort key of each raw kind: errors first, then the kinds in FINDING_KINDS order. */
@@ -475,6 +477,13 @@ function draft(ctx: Ctx, k: number): Draft {
       const pk = input.packageName?.[a];
       const what = pk ? `package ${pk}` : 'its package';
       return singleDraft(input, kind, severity, a, `${partName(input, a)}: none of the nozzles of ${what} is on the machine`, { type: 'point', x: cx[a], y: cy[a] }, null, null);
+    }
+    case K_NOZZLE_SIZE: {
+      const nz = input.nozzle?.[a];
+      const tip = input.tipOuter![a];
+      const small = Math.min(input.length[a], input.width[a]);
+      const what = nz ? `nozzle ${nz}` : 'its nozzle';
+      return singleDraft(input, kind, severity, a, `${partName(input, a)}: the tip of ${what} (⌀ ${fmtMm(tip)} mm) is wider than the body's smaller side (${fmtMm(small)} mm)`, { type: 'point', x: cx[a], y: cy[a] }, sink.depth[k], null);
     }
     case K_BOARD_OVERLAP: {
       const side = SIDE_NAMES[sink.aux[k]];

@@ -15,7 +15,9 @@ export const K_NO_PACKAGE = 9;
 export const K_NO_NOZZLE = 10;
 /** off-board of a package marked `overhang`: a warning */
 export const K_OVERHANG = 11;
-export const RAW_KINDS = 12;
+/** the nozzle tip is wider than the body's smaller side: a warning */
+export const K_NOZZLE_SIZE = 12;
+export const RAW_KINDS = 13;
 
 /** Measurement hook for the bench: called at the end of each phase when set (null otherwise). */
 export const verifyProbe: { onPhase: ((phase: string) => void) | null } = { onPhase: null };

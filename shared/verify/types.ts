@@ -76,7 +76,10 @@ export interface VerifyInput {
   hasPackage: Uint8Array;
   /** 1 when a nozzle of the package is on the machine */
   hasNozzle: Uint8Array;
+  /** outer diameter of the nozzle tip, mm (0 or NaN: unknown, not checked); optional */
+  tipOuter?: Float64Array;
   /** optional texts for messages */
+  nozzle?: (string | null)[];
   footprint?: string[];
   packageName?: (string | null)[];
   boards: BoardOutline[];

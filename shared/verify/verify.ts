@@ -38,6 +38,7 @@ import {
   K_FIDUCIAL,
   K_NO_NOZZLE,
   K_NO_PACKAGE,
+  K_NOZZLE_SIZE,
   K_OFF_BOARD,
   K_OFF_PANEL,
   K_OVERHANG,
@@ -788,13 +789,14 @@ function fiducialChecks(
 }
 
 // ---------------------------------------------------------------------------------------------
-// Single-part kinds: off-board, out-of-reach, no-package, no-nozzle
+// Single-part kinds: off-board, out-of-reach, no-package, no-nozzle, nozzle-size
 
 function singleChecks(
   input: VerifyInput, P: Prepared, O: PreparedOutlines, ids: Int32Array, side: number, sink: FindingSink,
 ): void {
   const { cx, cy, c, s, hx, hy } = P;
-  const { hasPackage, hasNozzle, overhang, board } = input;
+  const { hasPackage, hasNozzle, overhang, board, length, width } = input;
+  const tip = input.tipOuter;
   const boardOf = O.boardBySide[side];
   const edges = O.boardEdges;
   const reach = input.reach;
@@ -806,6 +808,12 @@ function singleChecks(
     const i = ids[k];
     if (hasPackage[i] === 0) sink.add(K_NO_PACKAGE, i, 0, 0, NaN, NaN);
     else if (hasNozzle[i] === 0) sink.add(K_NO_NOZZLE, i, 0, 0, NaN, NaN);
+    else if (tip !== undefined) {
+      // Common practice: a nozzle tip no wider than the body's smaller side, so the tip seals on
+      // the body and does not rest on the neighbours or the leads.
+      const excess = tip[i] - (length[i] < width[i] ? length[i] : width[i]);
+      if (excess > TOUCH_EPS) sink.add(K_NOZZLE_SIZE, i, 0, 0, excess, NaN);
+    }
     const x = cx[i];
     const y = cy[i];
     if (reach) {
