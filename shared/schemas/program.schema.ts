@@ -212,6 +212,8 @@ export const revisionDetailSchema = revisionSummarySchema.extend({
       headers: z.array(z.string()),
       dialect: z.record(z.string(), z.unknown()),
       warnings: z.array(z.object({ line: z.number().nullable(), message: z.string() })),
+      /** the placed parts' centres in the file's design coordinates (mm), null with none placed */
+      extent: z.object({ minX: z.number(), minY: z.number(), maxX: z.number(), maxY: z.number() }).nullable().optional(),
     })
     .nullable(),
   overrides: z.record(z.string(), overrideSchema),

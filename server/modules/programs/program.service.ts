@@ -189,6 +189,7 @@ export class ProgramService {
             headers: imported.headers,
             dialect: imported.dialect as unknown as Record<string, unknown>,
             warnings: imported.warnings.map((w) => ({ line: w.line, message: w.message })),
+            extent: placedExtent(imported.placements),
           }
         : null,
       overrides: r.overrides as Record<string, Override>,
@@ -629,6 +630,19 @@ export class ProgramService {
 }
 
 /** Centroid files are text: UTF-8 (a BOM is fine) or Latin-1 as older CAD tools write. */
+/** The placed (not do-not-place) parts' centres: their bounding box in design coordinates (mm). */
+function placedExtent(placements: ImportResult['placements']): { minX: number; minY: number; maxX: number; maxY: number } | null {
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const p of placements) {
+    if (p.dnp) continue;
+    if (p.x < minX) minX = p.x;
+    if (p.x > maxX) maxX = p.x;
+    if (p.y < minY) minY = p.y;
+    if (p.y > maxY) maxY = p.y;
+  }
+  return minX <= maxX ? { minX, minY, maxX, maxY } : null;
+}
+
 export function decodeText(bytes: Buffer, fileName: string): string {
   if (bytes.length === 0) throw new BadRequestError(`${fileName} is empty.`, [{ path: 'file', message: 'Empty file' }]);
   const probe = bytes.subarray(0, 65536);
