@@ -16,6 +16,7 @@ import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { AuditService } from './modules/audit/audit.service';
 import { registerAuditRoutes } from './modules/audit/audit.router';
 import { configurePassport, registerAuthRoutes } from './modules/auth/auth.router';
+import { PostgresRateLimitStore } from './modules/auth/rate-limit-store';
 import { registerHealthRoutes } from './modules/health/health.router';
 import { registerMailRoutes } from './modules/mail/mail.router';
 import type { Mailer } from './modules/mail/mailer';
@@ -129,7 +130,7 @@ export function createApp(deps: AppDeps): Express & { locals: { routes: ApiRoute
 
   const api = new ApiRoutes();
   registerHealthRoutes(api, ds, APP_VERSION);
-  registerAuthRoutes(api, { passport, users, audit, signInLimit: env.LOGIN_RATE_LIMIT, csrfToken: (req, res) => generateCsrfToken(req, res, { overwrite: false, validateOnReuse: false }) });
+  registerAuthRoutes(api, { passport, users, audit, signInLimit: env.LOGIN_RATE_LIMIT, rateLimitStore: new PostgresRateLimitStore(ds, 'sign-in:'), csrfToken: (req, res) => generateCsrfToken(req, res, { overwrite: false, validateOnReuse: false }) });
   registerUserRoutes(api, users);
   registerAuditRoutes(api, audit);
   registerMailRoutes(api, ds);

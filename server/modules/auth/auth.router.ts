@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
 import type { Request } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { rateLimit, type Store } from 'express-rate-limit';
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { signInInputSchema } from '../../../shared/schemas/auth.schema';
@@ -45,7 +45,15 @@ export function configurePassport(users: UserService) {
 
 export function registerAuthRoutes(
   api: ApiRoutes,
-  deps: { passport: passport.Authenticator; users: UserService; audit: AuditService; signInLimit: number; csrfToken: (req: Request, res: import('express').Response) => string },
+  deps: {
+    passport: passport.Authenticator;
+    users: UserService;
+    audit: AuditService;
+    signInLimit: number;
+    csrfToken: (req: Request, res: import('express').Response) => string;
+    /** where the sign-in limiter counts (PostgreSQL in the app: shared by instances, kept over restarts) */
+    rateLimitStore?: Store;
+  },
 ) {
   const { passport: p, audit } = deps;
 
@@ -54,6 +62,7 @@ export function registerAuthRoutes(
     limit: deps.signInLimit,
     standardHeaders: 'draft-7',
     legacyHeaders: false,
+    ...(deps.rateLimitStore ? { store: deps.rateLimitStore } : {}),
     handler: (_req, _res, next) =>
       next(new TooManyRequestsError('Too many sign-in attempts from this address. Wait 15 minutes and try again, or ask an admin to reset your password.')),
   });
