@@ -1,3 +1,4 @@
+import { useMemo } from 'react';
 import type { RevisionSettingsInput } from '../../../../../shared/schemas/program.schema';
 import { Button } from '../../../../components/ui/button';
 import { SelectField } from '../../../../components/ui/field';
@@ -6,12 +7,16 @@ import { NumInput } from '../../../../features/programs/components/num-input';
 import { PanelPreview } from '../../../../features/programs/components/panel-preview';
 import { useSettingsDraft } from '../../../../features/programs/hooks/use-settings-draft';
 import { useWorkspace } from '../workspace';
+import { BOARD_GAP_MM, defaultPitch, FIT_MARGIN_MM, outlineFromExtent, panelProblems } from './panelize-help';
 
 type Panel = NonNullable<RevisionSettingsInput['panel']>;
 type Grid = NonNullable<Panel['grid']>;
 type Instance = NonNullable<Panel['instances']>[number];
 
 const EMPTY_GRID: Grid = { rows: 1, cols: 2, pitchX: 0, pitchY: 0, offsetX: 5, offsetY: 5, rotation: 0, cellRotations: [], skip: [] };
+
+/** A new grid for this board: pitch = board size + BOARD_GAP_MM. */
+const newGrid = (board: { width?: number; height?: number } | undefined): Grid => ({ ...EMPTY_GRID, ...defaultPitch(board) });
 
 export default function PanelizeStage() {
   const { revision: r } = useWorkspace();
@@ -20,10 +25,25 @@ export default function PanelizeStage() {
   const ro = !r.can.edit;
   const d = s.draft;
   const board = d.board ?? { originX: 0, originY: 0, width: NaN, height: NaN };
-  const panel: Panel = d.panel ?? { width: NaN, height: NaN, flipAxis: 'vertical', grid: { ...EMPTY_GRID } };
+  const panel: Panel = d.panel ?? { width: NaN, height: NaN, flipAxis: 'vertical', grid: newGrid(board) };
   const mode = panel.instances ? 'instances' : 'grid';
   const grid: Grid = { ...EMPTY_GRID, ...(panel.grid ?? {}) };
-  const setBoard = (patch: Partial<typeof board>) => s.setDraft({ ...d, board: { ...board, ...patch } as never });
+  const setBoard = (patch: Partial<typeof board>) => {
+    const next = { ...board, ...patch };
+    // a grid pitch still at its default (or unset) follows the board size as it is typed
+    let nextPanel = d.panel;
+    if (d.panel && panel.grid && !panel.instances) {
+      const was = defaultPitch(board);
+      const now = defaultPitch(next);
+      const g = { ...grid };
+      if (g.pitchX === was.pitchX || !(g.pitchX > 0)) g.pitchX = now.pitchX;
+      if (g.pitchY === was.pitchY || !(g.pitchY > 0)) g.pitchY = now.pitchY;
+      if (g.pitchX !== grid.pitchX || g.pitchY !== grid.pitchY) nextPanel = { ...panel, grid: g };
+    }
+    s.setDraft({ ...d, board: next as never, panel: nextPanel });
+  };
+  const extent = r.imported?.extent ?? null;
+  const problems = useMemo(() => panelProblems(board, panel), [board, panel]);
   const setPanel = (patch: Partial<Panel>) => s.setDraft({ ...d, panel: { ...panel, ...patch } as Panel });
   const setGrid = (patch: Partial<Grid>) => setPanel({ grid: { ...grid, ...patch }, instances: undefined });
   const instances: Instance[] = panel.instances ?? [];
@@ -61,17 +81,29 @@ export default function PanelizeStage() {
           <NumInput label="Width" value={board.width} onChange={(v) => setBoard({ width: v })} error={s.fieldError('board.width')} />
           <NumInput label="Height" value={board.height} onChange={(v) => setBoard({ height: v })} error={s.fieldError('board.height')} />
           <p className="col-span-2 text-xs text-ink-500">The lower-left corner of the board in the centroid file's coordinates, and its size.</p>
+          {extent && (
+            <div className="col-span-2 flex flex-wrap items-center gap-2 rounded bg-ink-50 px-2 py-1.5 text-xs text-ink-700" data-testid="parts-extent">
+              <span>
+                Parts span <span className="num">{extent.minX.toFixed(3)} … {extent.maxX.toFixed(3)} mm</span> in X and <span className="num">{extent.minY.toFixed(3)} … {extent.maxY.toFixed(3)} mm</span> in Y.
+              </span>
+              {!ro && (
+                <Button variant="secondary" className="px-2 py-0.5 text-xs" title={`Outline = the parts' centres plus ${FIT_MARGIN_MM} mm on every side; check it against the board's drawing`} onClick={() => setBoard(outlineFromExtent(extent))}>
+                  Fit outline to parts
+                </Button>
+              )}
+            </div>
+          )}
         </fieldset>
 
         <fieldset disabled={ro} className="grid grid-cols-2 gap-3 rounded border border-ink-200 bg-white p-4">
           <legend className="px-1 text-sm font-semibold">Panel</legend>
           <NumInput label="Panel width" value={panel.width} onChange={(v) => setPanel({ width: v as number })} error={s.fieldError('panel.width')} />
           <NumInput label="Panel height" value={panel.height} onChange={(v) => setPanel({ height: v as number })} error={s.fieldError('panel.height')} />
-          <SelectField label="Bottom side flips about" value={panel.flipAxis ?? 'vertical'} onChange={(e) => setPanel({ flipAxis: e.target.value as Panel['flipAxis'] })}>
+          <SelectField className="col-span-2" label="Bottom side flips about" value={panel.flipAxis ?? 'vertical'} onChange={(e) => setPanel({ flipAxis: e.target.value as Panel['flipAxis'] })}>
             <option value="vertical">the vertical axis (left–right)</option>
             <option value="horizontal">the horizontal axis (top–bottom)</option>
           </SelectField>
-          <SelectField label="Boards are placed by" value={mode} onChange={(e) => (e.target.value === 'grid' ? setPanel({ grid: { ...EMPTY_GRID, pitchX: (board.width || 0) + 5, pitchY: (board.height || 0) + 5 }, instances: undefined }) : setPanel({ instances: [{ x: 5, y: 5, rotation: 0, skip: false }], grid: undefined }))}>
+          <SelectField className="col-span-2" label="Boards are placed by" value={mode} onChange={(e) => (e.target.value === 'grid' ? setPanel({ grid: newGrid(board), instances: undefined }) : setPanel({ instances: [{ x: 5, y: 5, rotation: 0, skip: false }], grid: undefined }))}>
             <option value="grid">a grid (rows × columns)</option>
             <option value="instances">a list of boards</option>
           </SelectField>
@@ -84,6 +116,7 @@ export default function PanelizeStage() {
             <NumInput label="Columns" unit="" integer value={grid.cols} onChange={(v) => setGrid({ cols: v as number })} error={s.fieldError('panel.grid.cols')} />
             <NumInput label="Pitch X" value={grid.pitchX} onChange={(v) => setGrid({ pitchX: v as number })} />
             <NumInput label="Pitch Y" value={grid.pitchY} onChange={(v) => setGrid({ pitchY: v as number })} />
+            <p className="col-span-2 -mt-1 text-2xs text-ink-500">Pitch: from one board's corner to the next one's. A new grid starts at the board size + {BOARD_GAP_MM} mm (a routing gap); for V-scored boards use the board size.</p>
             <NumInput label="Offset X" value={grid.offsetX} onChange={(v) => setGrid({ offsetX: v ?? 0 })} />
             <NumInput label="Offset Y" value={grid.offsetY} onChange={(v) => setGrid({ offsetY: v ?? 0 })} />
             <NumInput label="Board rotation" unit="°" value={grid.rotation} onChange={(v) => setGrid({ rotation: v ?? 0 })} />
@@ -130,6 +163,18 @@ export default function PanelizeStage() {
             ))}
             <Button variant="secondary" onClick={() => setPanel({ instances: [...instances, { x: 5, y: 5, rotation: 0, skip: false }], grid: undefined })}>Add a board</Button>
           </fieldset>
+        )}
+
+        {problems && (problems.overlaps.length > 0 || problems.offPanel.length > 0) && (
+          <div role="alert" aria-label="Panel problems" className="flex flex-col gap-1 rounded border border-sev-error/40 bg-sev-error/5 px-3 py-2 text-xs text-sev-error">
+            {problems.overlaps.length > 0 && (
+              <p>
+                Boards overlap: {problems.overlaps.slice(0, 6).map(([a, b]) => `${a} and ${b}`).join(', ')}{problems.overlaps.length > 6 ? ` and ${problems.overlaps.length - 6} more pairs` : ''}.
+                {mode === 'grid' && board.width > 0 && board.height > 0 && <> Make the pitch at least the board size (<span className="num">{board.width.toFixed(3)} × {board.height.toFixed(3)} mm</span>, turned boards count with their turned size).</>}
+              </p>
+            )}
+            {problems.offPanel.length > 0 && <p>Board{problems.offPanel.length === 1 ? '' : 's'} {problems.offPanel.slice(0, 10).join(', ')}{problems.offPanel.length > 10 ? '…' : ''} reach{problems.offPanel.length === 1 ? 'es' : ''} outside the panel: enlarge the panel or move the boards.</p>}
+          </div>
         )}
 
         <fieldset disabled={ro} className="flex flex-col gap-2 rounded border border-ink-200 bg-white p-4">
