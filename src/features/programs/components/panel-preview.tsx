@@ -8,6 +8,8 @@ interface Props {
   settings: RevisionSettingsInput;
   reach?: { x: number; y: number } | null;
   height?: number;
+  /** write each fiducial's name beside it (the Align stage) */
+  labelFiducials?: boolean;
 }
 
 /**
@@ -16,7 +18,7 @@ interface Props {
  * skipped boards crossed, fiducials with their clear circles, and the machine's reach.
  * Geometry comes from shared/panel — the same step-out the engine uses.
  */
-export function PanelPreview({ settings, reach, height = 360 }: Props) {
+export function PanelPreview({ settings, reach, height = 360, labelFiducials: labelFids = false }: Props) {
   const model = useMemo(() => {
     const board = settings.board;
     const parsed = panelSchema.safeParse(settings.panel);
@@ -60,7 +62,7 @@ export function PanelPreview({ settings, reach, height = 360 }: Props) {
   const font = Math.max(panel.width, panel.height) / 40;
   return (
     <figure className="rounded border border-ink-200 bg-ink-950 p-2">
-      <svg role="img" aria-label={`Panel ${panel.width.toFixed(3)} × ${panel.height.toFixed(3)} mm with ${boards.length} boards`} viewBox={`${-pad} ${-(showReach ? maxY : panel.height) - pad} ${vbW} ${vbH}`} style={{ width: '100%', height }} preserveAspectRatio="xMidYMid meet">
+      <svg role="img" aria-label={`Panel ${panel.width.toFixed(3)} × ${panel.height.toFixed(3)} mm with ${boards.length} boards${fids.length ? ` and ${fids.length} fiducial${fids.length === 1 ? '' : 's'} (${fids.map((f) => f.name).join(', ')})` : ''}`} viewBox={`${-pad} ${-(showReach ? maxY : panel.height) - pad} ${vbW} ${vbH}`} style={{ width: '100%', height }} preserveAspectRatio="xMidYMid meet">
         {showReach && reach && <rect x={0} y={Y(reach.y)} width={reach.x} height={reach.y} fill="none" stroke="#3f88c5" strokeDasharray={`${font / 2} ${font / 3}`} strokeWidth={font / 12} />}
         <rect x={0} y={Y(panel.height)} width={panel.width} height={panel.height} fill="#1d5c3d" fillOpacity={0.35} stroke="#a9b6c0" strokeWidth={font / 10} />
         {boards.map((b) => (
@@ -79,9 +81,14 @@ export function PanelPreview({ settings, reach, height = 360 }: Props) {
           </g>
         ))}
         {fids.map((f) => (
-          <g key={`${f.side}-${f.name}`}>
+          <g key={`${f.side}-${f.name}`} data-fiducial={f.name}>
             <circle cx={f.x} cy={Y(f.y)} r={f.r} fill="none" stroke={f.side === 'top' ? '#e7a46c' : '#cdd5db'} strokeWidth={font / 14} strokeDasharray={f.side === 'bottom' ? `${font / 5} ${font / 6}` : undefined} />
             <circle cx={f.x} cy={Y(f.y)} r={Math.min(f.r / 2, 0.5)} fill={f.side === 'top' ? '#e7a46c' : '#cdd5db'} />
+            {labelFids && (
+              <text x={f.x + f.r + font * 0.3} y={Y(f.y)} fontSize={font * 0.9} fill={f.side === 'top' ? '#e7a46c' : '#cdd5db'} dominantBaseline="middle" fontFamily="Roboto Mono, monospace">
+                {f.name}
+              </text>
+            )}
           </g>
         ))}
       </svg>

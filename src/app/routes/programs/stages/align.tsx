@@ -5,6 +5,7 @@ import { SelectField } from '../../../../components/ui/field';
 import { ErrorPanel, ProgressBar } from '../../../../components/ui/misc';
 import { useRun } from '../../../../features/programs/api/programs';
 import { NumInput } from '../../../../features/programs/components/num-input';
+import { PanelPreview } from '../../../../features/programs/components/panel-preview';
 import { useSettingsDraft } from '../../../../features/programs/hooks/use-settings-draft';
 import { deg, mm } from '../../../../lib/format';
 import { useWorkspace } from '../workspace';
@@ -144,6 +145,10 @@ export default function AlignStage() {
         )}
       </form>
       <aside aria-label="Transform results" className="flex flex-col gap-3">
+        <section aria-label="Fiducials on the panel" className="flex flex-col gap-1">
+          <h2 className="font-semibold">On the panel (as typed)</h2>
+          <PanelPreview settings={s.draft} height={260} labelFiducials />
+        </section>
         <h2 className="font-semibold">Fit (saved settings)</h2>
         {!canRun ? <p className="text-sm text-ink-500">Import a file and set the panel first.</p> : sides.map((side) => <TransformReport key={side} revisionId={r.id} version={r.version} side={side} />)}
       </aside>
