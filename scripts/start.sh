@@ -11,10 +11,8 @@ export DATABASE_URL="${DATABASE_URL:-$(bash scripts/db.sh url "$DB_NAME")}"
 
 log "migrating"
 node --import tsx server/db/migrate.ts
-if [ "${PW_DEMO_SEED:-1}" = 1 ]; then
-  log "seeding the demo scenario (set PW_DEMO_SEED=0 to skip)"
-  node --import tsx server/db/seed.ts
-fi
+# The demo seed runs on a new database only (PW_DEMO_SEED=force: every start; 0: never).
+node --import tsx server/db/seed.ts
 if [ "${PW_SKIP_BUILD:-0}" != 1 ]; then
   log "building the client (production bundle)"
   bash scripts/build-client.sh production
