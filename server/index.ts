@@ -20,6 +20,12 @@ const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`Placewright is running at http://${shown}:${env.PORT}/`);
   if (!env.SMTP_URL) console.log(`Mail is captured locally (SMTP 127.0.0.1:${mailer.capturePort}); admins read it on the Outbox page.`);
 });
+// Start the check workers now, so that the first check does not wait for them.
+const warmStart = performance.now();
+app.locals.services.checks
+  .warm()
+  .then(() => console.log(`Check workers ready in ${Math.round(performance.now() - warmStart)} ms.`))
+  .catch((err) => console.error('[placewright] the check workers did not start; checks will start them on first use:', err));
 
 async function shutdown() {
   server.close();

@@ -26,6 +26,14 @@ export class CheckPool {
     return this.task('default', input);
   }
 
+  /**
+   * Starts the worker threads and loads the engine in each (server start calls it), so the first
+   * check a user runs does not wait for thread start-up and TypeScript compilation.
+   */
+  async warm(): Promise<void> {
+    await Promise.all([0, 1].map(() => this.task('warm', null)));
+  }
+
   /** The checks and the placement lists of a release, from one run. */
   release(input: EngineInput, generated: string): Promise<ReleaseOutput> {
     return this.task('release', { input, generated });
