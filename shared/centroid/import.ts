@@ -13,6 +13,7 @@ import type {
   Side,
   Units,
 } from '../pipeline/types';
+import { firstFormulaCell } from '../csv-safety';
 import { analyseHeader, FIELDS, REQUIRED_FIELDS, type Field, type HeaderInfo } from './headers';
 import { parseFlagCell, parseNumberCell, parseRotationCell, parseSideCell, plainNumber } from './values';
 
@@ -541,6 +542,8 @@ function readRows(rows: string[][], c: RowContext) {
       bad(rowErr(c.file, 'empty reference', { line: rowLine, column: infos[iRef].raw, code: 'empty-ref' }));
       continue;
     }
+    const fx = firstFormulaCell(row, iRef, iFp, iVal, iPn); // spreadsheet formulas: shared/csv-safety
+    if (fx) { bad(rowErr(c.file, fx.problem, { line: rowLine, column: infos[fx.index].raw, code: 'formula-cell' })); continue; }
     if (refTable.seen(ref, count)) {
       const prev = lines[refs.indexOf(ref)];
       bad(rowErr(c.file, `duplicate reference "${ref}" (first on line ${prev})`, {

@@ -66,3 +66,24 @@ export function csvField(cell: string, delimiter = ','): string {
 export function csvRow(cells: readonly (string | number | null | undefined)[], delimiter = ','): string {
   return cells.map((c) => (c === null || c === undefined ? '' : typeof c === 'number' ? String(c) : csvField(c, delimiter))).join(delimiter);
 }
+
+/**
+ * The first of a row's text cells (columns `at`, -1 for a column the file lacks) that would start
+ * a formula once trimmed, with why: what an import refuses. Cheap on ordinary cells.
+ */
+export function firstFormulaCell(row: readonly string[], ...at: number[]): { index: number; problem: string } | null {
+  for (const i of at) {
+    if (i < 0) continue;
+    let cell = row[i];
+    if (cell === undefined || cell.length === 0) continue;
+    const c0 = cell.charCodeAt(0);
+    // fast path: letters, digits and most punctuation cannot start a formula (triggers: = 61,
+    // + 43, - 45, @ 64, and blanks at or below 32 that a trim removes)
+    if (c0 > 64 || (c0 > 45 && c0 < 61) || c0 === 62 || c0 === 63 || (c0 > 32 && c0 < 43) || c0 === 44) continue;
+    // the import keeps the trimmed cell: judge that
+    if (c0 <= 32 || cell.charCodeAt(cell.length - 1) <= 32) cell = cell.trim();
+    const problem = formulaCellProblem(cell);
+    if (problem) return { index: i, problem };
+  }
+  return null;
+}

@@ -2,6 +2,7 @@
 import Papa from 'papaparse';
 import { z } from 'zod';
 import { EngineInputError } from '../pipeline/errors';
+import { unneutraliseCell } from '../csv-safety';
 import { sha256Hex } from './format';
 import { CSV_HEADER, LIST_FORMAT, type ListMeta, type ListPlacement, type ListTransform, type PlacementList } from './types';
 
@@ -119,6 +120,7 @@ export async function readPlacementListCsv(text: string, opts: ReadOptions = {})
     throw new EngineInputError(`expected the header row "${CSV_HEADER}", got "${header}"`, { file, line: headerLine, code: 'bad-list' });
   }
   const rows = Papa.parse<string[]>(headerEnd < 0 ? '' : body.slice(headerEnd + 1), { delimiter: ',', newline: '\n', skipEmptyLines: false }).data;
+  for (const row of rows) for (const i of [2, 6, 7, 8, 10, 11]) if (row[i]) row[i] = unneutraliseCell(row[i]); // the writer's formula guard: shared/csv-safety
   const placements: ListPlacement[] = [];
   const COLS = CSV_HEADER.split(',');
   let l = headerLine;

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { csvField, csvRow, formulaCellProblem, formulaTrigger, neutraliseCell, unneutraliseCell } from '../../shared/csv-safety';
+import { csvField, csvRow, firstFormulaCell, formulaCellProblem, formulaTrigger, neutraliseCell, unneutraliseCell } from '../../shared/csv-safety';
 
 // The triggers and the remedy are those of the OWASP "CSV Injection" page: cells starting with
 // = + - @ tab or carriage return; prefix a single quote and wrap the cell in double quotes.
@@ -56,6 +56,18 @@ describe('spreadsheet formula cells', () => {
         });
       }),
       { numRuns: 2000 },
+    );
+  });
+
+  it('firstFormulaCell finds each trigger in the given columns (after trimming), and agrees with formulaTrigger', () => {
+    for (const cell of ['=1', '+x', '-x', '@x', '  =1', '\t=1', ' @x']) expect(firstFormulaCell(['R1', cell], 0, 1), JSON.stringify(cell)).toMatchObject({ index: 1 });
+    expect(firstFormulaCell(['=1', 'ok'], -1, 1)).toBeNull();
+    fc.assert(
+      fc.property(fc.string(), (cell) => {
+        const found = firstFormulaCell([cell], 0);
+        expect(found !== null).toBe(formulaTrigger(cell.trim()) !== null);
+      }),
+      { numRuns: 5000 },
     );
   });
 });
