@@ -20,7 +20,7 @@ import {
 import { BadRequestError, UnauthenticatedError } from '../../lib/errors';
 import type { ApiRoutes } from '../../lib/routes';
 import { validate, zodIssues } from '../../middleware/validate';
-import { UPLOAD_LIMIT_BYTES, type ProgramService, type ServiceUser } from './program.service';
+import { PROGRAM_PAGE_MAX, UPLOAD_LIMIT_BYTES, type ProgramService, type ServiceUser } from './program.service';
 import type { RunFileService } from './run-file.service';
 
 const ACCEPTED_EXT = /\.(csv|txt|tsv|pos|xy|mnt|dat)$/i;
@@ -35,11 +35,17 @@ const upload = multer({
   },
 });
 
+/** The longest file name stored with a revision (the column is varchar(255), as most file systems allow). */
+const FILE_NAME_MAX = 255;
+
 /** Multipart: `file` plus `options` (JSON of the import options) and `version`. */
 const uploadFields: RequestHandler = (req, res, next) => {
   upload.single('file')(req, res, (err: unknown) => {
     if (err) return next(err);
     if (!req.file) return next(new BadRequestError('Choose a centroid file to upload.', [{ path: 'file', message: 'Required' }]));
+    if (req.file.originalname.length > FILE_NAME_MAX) {
+      return next(new BadRequestError(`The file name is ${req.file.originalname.length} characters long; at most ${FILE_NAME_MAX} are kept. Rename the file and upload it again.`, [{ path: 'file', message: `File name longer than ${FILE_NAME_MAX} characters` }]));
+    }
     let options: unknown = {};
     try {
       options = req.body?.options ? JSON.parse(String(req.body.options)) : {};
@@ -55,6 +61,12 @@ const uploadFields: RequestHandler = (req, res, next) => {
 
 const versionField = z.coerce.number().int().min(1);
 
+/** `?limit=&offset=` of the program list (most recently changed first). */
+const programPageSchema = z.object({
+  limit: z.coerce.number().int().min(1, 'At least 1').max(PROGRAM_PAGE_MAX, `At most ${PROGRAM_PAGE_MAX}`).default(PROGRAM_PAGE_MAX),
+  offset: z.coerce.number().int().min(0, 'At least 0').default(0),
+});
+
 function userOf(req: Request): ServiceUser {
   if (!req.user) throw new UnauthenticatedError();
   return { id: req.user.id, email: req.user.email, roles: req.user.roles };
@@ -66,8 +78,8 @@ const id = (req: Request) => String(req.params.id);
 export function registerProgramRoutes(api: ApiRoutes, programs: ProgramService, runFiles: RunFileService) {
   const eng = ['engineer'] as const;
 
-  api.get('/programs', eng, async (_req, res) => {
-    res.json({ items: await programs.listPrograms() });
+  api.get('/programs', eng, validate(programPageSchema, 'query'), async (req, res) => {
+    res.json(await programs.listPrograms(req.query as unknown as z.infer<typeof programPageSchema>));
   });
 
   api.post('/programs', eng, validate(createProgramInputSchema), async (req, res) => {

@@ -21,11 +21,12 @@ import {
 } from '../../../shared/schemas/program.schema';
 import { Program, ProgramRevision, ReleaseFile, RevisionComment, RevisionWaiver, type RevisionState } from '../../db/entities/program.entity';
 import { User } from '../../db/entities/user.entity';
-import { BadRequestError, ConflictError, ForbiddenError, NotFoundError } from '../../lib/errors';
+import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
 import type { AuditService } from '../audit/audit.service';
 import type { Mailer } from '../mail/mailer';
 import type { UserService } from '../users/user.service';
 import type { CheckPool } from './check-pool';
+import { assertIndependentReviewer, contributorsOf, isContributor, recordContribution } from './contributors';
 import { CENTROID_NAME_FALLBACK, importFile, previewFile, runEngine, type EngineInput } from './engine';
 import { buildReviewSummary, revisionChanges } from './review-summary';
 
@@ -40,6 +41,15 @@ export const UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
 export const PREVIEW_ERROR_LIMIT = 200;
 
 const EDITABLE: RevisionState[] = ['draft'];
+
+/** The most programs one page lists (GET /programs?limit=…). */
+export const PROGRAM_PAGE_MAX = 500;
+
+/** What lists and summaries show of a revision: never the file, the import, the findings or the underlay. */
+const SUMMARY_COLUMNS = {
+  id: true, programId: true, label: true, state: true, authorId: true, reviewerId: true, centroidName: true, placementCount: true,
+  checkedAt: true, findingsSummary: true, submittedAt: true, releasedAt: true, createdAt: true, updatedAt: true, version: true,
+} as const;
 
 function nextLabel(label: string): string {
   // A … Z, then AA, AB, … (as drawing revisions are usually lettered)
@@ -91,14 +101,13 @@ export class ProgramService {
               AND NOT EXISTS (SELECT 1 FROM revision_waivers w WHERE w.revision_id = r.id AND (w.finding_key = f.value->>'key'
                    OR (w.scope = 'every-board' AND jsonb_array_length(f.value->'boards') = 1
                        AND w.finding_key = regexp_replace(f.value->>'key', '\\|\\d+:', '|*:', 'g'))))
-        WHERE r.id = ANY($1) GROUP BY r.id`,
+        WHERE r.id = ANY($1) AND COALESCE((r.findings_summary->>'errors')::int, 0) > 0 GROUP BY r.id`,
       [ids],
     );
     return new Map(rows.map((x) => [x.id, x.n]));
   }
 
   private summary(r: ProgramRevision, ref: (id: string | null) => { id: string; name: string; email: string } | null, open?: Map<string, number>): RevisionSummary {
-    const imported = r.imported as unknown as ImportResult | null;
     const s = r.findingsSummary as { errors?: number; warnings?: number } | null;
     return {
       id: r.id,
@@ -108,11 +117,12 @@ export class ProgramService {
       author: ref(r.authorId),
       reviewer: ref(r.reviewerId),
       centroidName: r.centroidName,
-      placements: imported ? imported.placements.filter((p) => !p.dnp).length : 0,
+      placements: r.placementCount,
       checkedAt: r.checkedAt?.toISOString() ?? null,
       errors: s?.errors ?? null,
       warnings: s?.warnings ?? null,
-      openErrors: r.findings === null ? null : (open?.get(r.id) ?? s?.errors ?? null),
+      // findings and their summary are stored and cleared together; lists load only the summary
+      openErrors: !s ? null : (open?.get(r.id) ?? s.errors ?? null),
       submittedAt: r.submittedAt?.toISOString() ?? null,
       releasedAt: r.releasedAt?.toISOString() ?? null,
       createdAt: r.createdAt.toISOString(),
@@ -121,14 +131,15 @@ export class ProgramService {
     };
   }
 
-  async listPrograms(): Promise<ProgramDto[]> {
-    const programs = await this.ds.getRepository(Program).find({ order: { updatedAt: 'DESC' } });
+  /** One page of programs, most recently changed first, with the number of programs in all. */
+  async listPrograms(page: { limit: number; offset: number } = { limit: PROGRAM_PAGE_MAX, offset: 0 }): Promise<{ items: ProgramDto[]; total: number }> {
+    const [programs, total] = await this.ds.getRepository(Program).findAndCount({ order: { updatedAt: 'DESC', id: 'ASC' }, take: page.limit, skip: page.offset });
     const revisions = programs.length
-      ? await this.ds.getRepository(ProgramRevision).find({ where: { programId: In(programs.map((p) => p.id)) }, order: { createdAt: 'ASC' }, select: { id: true, programId: true, label: true, state: true, authorId: true, reviewerId: true, centroidName: true, checkedAt: true, findingsSummary: true, submittedAt: true, releasedAt: true, createdAt: true, updatedAt: true, version: true, imported: true } })
+      ? await this.ds.getRepository(ProgramRevision).find({ where: { programId: In(programs.map((p) => p.id)) }, order: { createdAt: 'ASC' }, select: SUMMARY_COLUMNS })
       : [];
     const ref = await this.userRefs([...programs.map((p) => p.ownerId), ...revisions.flatMap((r) => [r.authorId, r.reviewerId])]);
     const open = await this.openErrorCounts(revisions.map((r) => r.id));
-    return programs.map((p) => this.programDto(p, revisions.filter((r) => r.programId === p.id), ref, open));
+    return { items: programs.map((p) => this.programDto(p, revisions.filter((r) => r.programId === p.id), ref, open)), total };
   }
 
   private programDto(p: Program, revs: ProgramRevision[], ref: (id: string | null) => { id: string; name: string; email: string } | null, open?: Map<string, number>): ProgramDto {
@@ -147,7 +158,7 @@ export class ProgramService {
   async getProgram(id: string): Promise<ProgramDto> {
     const p = await this.ds.getRepository(Program).findOneBy({ id });
     if (!p) throw new NotFoundError('The program');
-    const revs = await this.ds.getRepository(ProgramRevision).find({ where: { programId: id }, order: { createdAt: 'ASC' } });
+    const revs = await this.ds.getRepository(ProgramRevision).find({ where: { programId: id }, order: { createdAt: 'ASC' }, select: SUMMARY_COLUMNS });
     const ref = await this.userRefs([p.ownerId, ...revs.flatMap((r) => [r.authorId, r.reviewerId])]);
     return this.programDto(p, revs, ref, await this.openErrorCounts(revs.map((r) => r.id)));
   }
@@ -204,7 +215,7 @@ export class ProgramService {
       can: {
         edit: isEngineer && r.state === 'draft',
         submit: isEngineer && r.state === 'draft',
-        review: isEngineer && r.state === 'in-review' && r.authorId !== user.id,
+        review: isEngineer && r.state === 'in-review' && r.authorId !== user.id && !(await isContributor(this.ds.manager, r.id, user.id)),
         withdraw: isEngineer && (r.state === 'draft' || r.state === 'in-review'),
         newRevision: isEngineer && r.state === 'released' && !openRevision,
       },
@@ -233,9 +244,10 @@ export class ProgramService {
       const exists = await m.getRepository(Program).createQueryBuilder('p').where('lower(p.name) = lower(:n)', { n: input.name }).getExists();
       if (exists) throw new ConflictError(`A program named ${input.name} already exists.`, [{ path: 'name', message: 'Already in use' }]);
       const p = await m.getRepository(Program).save(m.getRepository(Program).create({ ...input, ownerId: user.id }));
-      await m.getRepository(ProgramRevision).save(
+      const first = await m.getRepository(ProgramRevision).save(
         m.getRepository(ProgramRevision).create({ programId: p.id, label: 'A', state: 'draft', authorId: user.id, settings: revisionSettingsSchema.parse({}) as never, overrides: {} }),
       );
+      await recordContribution(m, first.id, user, 'create');
       await this.deps.audit.record(user, 'program.create', input.name, { product: input.product, board: input.board }, ip, m);
       return p.id;
     });
@@ -268,6 +280,7 @@ export class ProgramService {
           underlay: source.underlay,
         }),
       );
+      await recordContribution(m, r.id, user, 'create');
       await this.deps.audit.record(user, 'revision.create', `${program.name} ${label}`, { from: source.label }, ip, m);
       const ref = await this.userRefs([r.authorId]);
       return this.summary(r, ref);
@@ -331,6 +344,7 @@ export class ProgramService {
         const unmatched = unmatchedFootprints(imported.placements, library, r.overrides as Record<string, Override>);
         if (unmatched.length) await this.deps.library.recordUnmatchedFootprints(m, `${program.name} ${r.label}`, unmatched);
       }
+      await recordContribution(m, r.id, user, 'import');
       await this.deps.audit.record(user, 'revision.import', `${program.name} ${r.label}`, { file: fileName, rows: imported.placements.length, sha256: r.centroidSha256 }, ip, m);
     });
   }
@@ -350,6 +364,7 @@ export class ProgramService {
       r.findingsSummary = null;
       r.checkedAt = null;
       await m.getRepository(ProgramRevision).save(r);
+      await recordContribution(m, r.id, user, 'settings');
       await this.deps.audit.record(user, 'revision.settings', await this.label(r, m), {}, ip, m);
     });
   }
@@ -369,6 +384,7 @@ export class ProgramService {
       r.findingsSummary = null;
       r.checkedAt = null;
       await m.getRepository(ProgramRevision).save(r);
+      await recordContribution(m, r.id, user, 'overrides');
       await this.deps.audit.record(user, 'revision.overrides', await this.label(r, m), { parts: Object.keys(overrides) }, ip, m);
     });
   }
@@ -413,6 +429,7 @@ export class ProgramService {
       r.findingsSummary = result.summary as never;
       r.checkedAt = new Date();
       await m.getRepository(ProgramRevision).save(r);
+      await recordContribution(m, r.id, user, 'check');
       await this.deps.audit.record(user, 'revision.check', await this.label(r, m), { errors: result.summary.errors, warnings: result.summary.warnings }, ip, m);
     });
   }
@@ -433,6 +450,7 @@ export class ProgramService {
       const existing = await repo.findBy({ revisionId });
       const covering = waiverLookup(existing)(finding);
       const label = await this.label(r, m);
+      await recordContribution(m, r.id, user, 'waiver');
       if (scope === 'finding') {
         if (covering) throw new ConflictError(covering.scope === 'every-board' ? 'This finding is already waived on every board.' : 'This finding is already waived.');
         const w = await repo.save(repo.create({ revisionId, findingKey: key, scope: 'finding', kind: finding.kind, reason, userId: user.id, userEmail: user.email }));
@@ -486,6 +504,7 @@ export class ProgramService {
       const w = await m.getRepository(RevisionWaiver).findOneBy({ id: waiverId, revisionId });
       if (!w) throw new NotFoundError('The waiver');
       await m.getRepository(RevisionWaiver).delete({ id: w.id });
+      await recordContribution(m, r.id, user, 'waiver');
       await this.deps.audit.record(user, 'finding.unwaive', await this.label(r, m), { key: w.findingKey }, ip, m);
     });
   }
@@ -509,6 +528,7 @@ export class ProgramService {
       r.reviewComment = null;
       await m.getRepository(ProgramRevision).save(r);
       programLabel = await this.label(r, m);
+      await recordContribution(m, r.id, user, 'submit');
       await this.deps.audit.record(user, 'revision.submit', programLabel, {}, ip, m);
     });
     const engineers = (await this.deps.users.emailsWithRole('engineer')).filter((e) => e !== user.email);
@@ -522,7 +542,8 @@ export class ProgramService {
   async approve(revisionId: string, comment: string, user: ServiceUser, ip: string | null) {
     const r0 = await this.getRevisionEntity(revisionId);
     if (r0.state !== 'in-review') throw new ConflictError(`Revision ${r0.label} is not in review (it is ${r0.state}).`);
-    if (r0.authorId === user.id) throw new ForbiddenError('You are the author of this revision: another engineer must review and release it.');
+    // Four-eyes: the releaser made none of the revision's changes (checked again below, in the transaction).
+    await assertIndependentReviewer(this.ds.manager, r0, user);
     const input = await this.engineInput(r0);
     // Re-check with today's library: the list released is the list checked.
     // The lists released are the lists checked: one run gives both (in the check worker).
@@ -536,6 +557,8 @@ export class ProgramService {
     await this.ds.transaction(async (m) => {
       const r = await this.getRevisionEntity(revisionId, m, true);
       if (r.state !== 'in-review' || r.version !== r0.version) throw new ConflictError('The revision changed while it was being released; reload and review it again.');
+      await assertIndependentReviewer(m, r, user);
+      const contributors = (await contributorsOf(m, r.id)).map((c) => c.userEmail);
       const blocking = await this.blockingFindings(r.id, result.findings, m);
       r.findings = result.findings as never;
       r.findingsSummary = result.summary as never;
@@ -556,7 +579,7 @@ export class ProgramService {
       await m.getRepository(ProgramRevision).save(r);
       programLabel = await this.label(r, m);
       authorEmail = (await m.getRepository(User).findOneBy({ id: r.authorId }))?.email ?? null;
-      await this.deps.audit.record(user, 'revision.release', programLabel, { files: files.map((f) => ({ side: f.side, format: f.format, sha256: f.sha256 })) }, ip, m);
+      await this.deps.audit.record(user, 'revision.release', programLabel, { files: files.map((f) => ({ side: f.side, format: f.format, sha256: f.sha256 })), contributors }, ip, m);
     });
     const operators = await this.deps.users.emailsWithRole('operator');
     const sums = files.filter((f) => f.format === 'csv').map((f) => `  ${f.side}: ${f.placements} placements, SHA-256 ${f.sha256}`).join('\n');
@@ -574,7 +597,7 @@ export class ProgramService {
     await this.ds.transaction(async (m) => {
       const r = await this.getRevisionEntity(revisionId, m, true);
       if (r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is not in review (it is ${r.state}).`);
-      if (r.authorId === user.id) throw new ForbiddenError('You are the author of this revision: another engineer reviews it. To change it yourself, withdraw and start again.');
+      await assertIndependentReviewer(m, r, user, 'review it (to change it yourself, withdraw it and start again)');
       r.state = 'draft';
       r.reviewerId = user.id;
       r.reviewedAt = new Date();
