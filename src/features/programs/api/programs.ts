@@ -50,8 +50,13 @@ export const useRevision = (id: string) => useQuery(revisionQueryOptions(id));
 export const getRun = (id: string, side: Side) => api(`/revisions/${id}/run?side=${side}`).then((j) => runResultFromJson(j as RunResultJson));
 export const runQueryOptions = (id: string, side: Side, version: number) =>
   queryOptions({ queryKey: ['revisions', id, 'run', side, version], queryFn: () => getRun(id, side), staleTime: Infinity, retry: false });
-export const useRun = (id: string, side: Side, version: number | undefined, enabled = true) =>
-  useQuery({ ...runQueryOptions(id, side, version ?? 0), enabled: enabled && version !== undefined });
+/** With `keepPrevious`, the last result of the same side stays shown while a new version runs. */
+export const useRun = (id: string, side: Side, version: number | undefined, enabled = true, keepPrevious = false) =>
+  useQuery({
+    ...runQueryOptions(id, side, version ?? 0),
+    enabled: enabled && version !== undefined,
+    placeholderData: keepPrevious ? (previous, previousQuery) => (previousQuery?.queryKey[3] === side ? previous : undefined) : undefined,
+  });
 
 /** After any write, the revision (and everything computed from it) is read again. */
 function useRevisionMutation<V>(id: string, fn: (v: V) => Promise<unknown>) {
@@ -117,7 +122,7 @@ export function useRunChecks(id: string) {
 }
 
 export function useWaive(id: string) {
-  return useRevisionMutation(id, (v: { key: string; reason: string }) => api(`/revisions/${id}/waivers`, { method: 'POST', body: v, schema: waiverSchema }));
+  return useRevisionMutation(id, (v: { key: string; reason: string; scope?: 'finding' | 'every-board' }) => api(`/revisions/${id}/waivers`, { method: 'POST', body: v, schema: waiverSchema }));
 }
 
 export function useUnwaive(id: string) {

@@ -8,10 +8,11 @@ import type { PlacementRecord, Side } from '../../../../../shared/pipeline/types
 import type { Override } from '../../../../../shared/schemas/program.schema';
 import { Button } from '../../../../components/ui/button';
 import { DataTable } from '../../../../components/ui/data-table';
-import { SelectField, TextField } from '../../../../components/ui/field';
+import { SelectField } from '../../../../components/ui/field';
 import { Badge, EmptyState, ErrorPanel, ProgressBar } from '../../../../components/ui/misc';
-import { useLibraryFile, usePackageRefs } from '../../../../features/programs/api/library-refs';
+import { usePackageRefs } from '../../../../features/programs/api/library-refs';
 import { useRun, useSaveOverrides } from '../../../../features/programs/api/programs';
+import { OverrideEditor } from '../../../../features/programs/components/override-editor';
 import { api } from '../../../../lib/api-client';
 import { deg, mm } from '../../../../lib/format';
 import { useWorkspace } from '../workspace';
@@ -37,41 +38,12 @@ function ProposeAlias({ footprint }: { footprint: string }) {
   );
 }
 
-function OverrideEditor({ refName, current, onSave, onClear, saving }: { refName: string; current?: Override; onSave: (o: Override) => void; onClear: () => void; saving: boolean }) {
-  const lib = useLibraryFile();
-  const [o, setO] = useState<Override>(current ?? { reason: '' });
-  const reasonOk = o.reason.trim().length >= 3;
-  return (
-    <section aria-label={`Override ${refName}`} className="rounded border border-copper-300 bg-white p-4">
-      <h3 className="mb-2 font-semibold">Override <span className="num">{refName}</span> (every board)</h3>
-      <div className="grid grid-cols-3 gap-3">
-        <SelectField label="Package" value={o.package ?? ''} onChange={(e) => setO({ ...o, package: e.target.value || undefined })}>
-          <option value="">(as matched)</option>
-          {lib.data?.packages.map((p) => <option key={p.name} value={p.name}>{p.name}</option>)}
-        </SelectField>
-        <SelectField label="Nozzle" value={o.nozzle ?? ''} onChange={(e) => setO({ ...o, nozzle: e.target.value || undefined })}>
-          <option value="">(as chosen)</option>
-          {lib.data?.nozzles.map((n) => <option key={n.name} value={n.name}>{n.name} — tip {n.tipOuter} mm</option>)}
-        </SelectField>
-        <SelectField label="Vision preset" value={o.vision ?? ''} onChange={(e) => setO({ ...o, vision: e.target.value || undefined })}>
-          <option value="">(the package's)</option>
-          {lib.data?.visionPresets.map((v) => <option key={v.name} value={v.name}>{v.name}</option>)}
-        </SelectField>
-        <TextField className="col-span-3" label="Reason (kept with the revision)" value={o.reason} onChange={(e) => setO({ ...o, reason: e.target.value })} error={o.reason && !reasonOk ? 'At least 3 characters' : undefined} />
-      </div>
-      <div className="mt-3 flex gap-2">
-        <Button disabled={!reasonOk || saving || (!o.package && !o.nozzle && !o.vision)} onClick={() => onSave({ ...o, reason: o.reason.trim() })}>Save override</Button>
-        {current && <Button variant="secondary" disabled={saving} onClick={onClear}>Remove override</Button>}
-      </div>
-    </section>
-  );
-}
-
 export default function AssignStage() {
   const { revision: r } = useWorkspace();
   const [side, setSide] = useState<Side>('top');
   const canRun = !!(r.imported && r.settings.board && r.settings.panel);
-  const run = useRun(r.id, side, r.version, canRun);
+  // keep the table (and its filter) on screen while a saved override is run again
+  const run = useRun(r.id, side, r.version, canRun, true);
   const save = useSaveOverrides(r.id);
   const [selected, setSelected] = useState<string | null>(null);
   const rows: Row[] = useMemo(() => (run.data ? placementRecords(run.data.placements).map((p) => ({ ...p, overridden: !!r.overrides[p.ref] })) : []), [run.data, r.overrides]);
@@ -127,7 +99,7 @@ export default function AssignStage() {
               </ul>
             </section>
           )}
-          {selected && r.can.edit && <OverrideEditor key={selected} refName={selected} current={r.overrides[selected]} saving={save.isPending} onSave={(o) => setOverride(selected, o)} onClear={() => setOverride(selected, null)} />}
+          {selected && r.can.edit && <OverrideEditor key={selected} refName={selected} current={r.overrides[selected]} saving={save.isPending} onSave={(o) => setOverride(selected, o)} onClear={() => setOverride(selected, null)} onCancel={() => setSelected(null)} />}
           <DataTable
             label="Placements"
             data={rows}

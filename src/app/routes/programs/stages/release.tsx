@@ -1,11 +1,15 @@
 import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
+import { waivedKeys } from '../../../../../shared/review/waivers';
+import type { RevisionDetail } from '../../../../../shared/schemas/program.schema';
 import { Button } from '../../../../components/ui/button';
+import { ConfirmDialog } from '../../../../components/ui/confirm-dialog';
 import { Badge } from '../../../../components/ui/misc';
 import { useApprove, useNewRevision, useReject, useSubmit, useWithdraw } from '../../../../features/programs/api/programs';
+import { ReviewSummaryPanel } from '../../../../features/programs/components/review-summary-panel';
 import { RevisionCanvas } from '../../../../features/programs/components/revision-canvas';
-import { dateTime } from '../../../../lib/format';
+import { dateTime, fileSize } from '../../../../lib/format';
 import { useWorkspace } from '../workspace';
 
 function Comments() {
@@ -30,31 +34,67 @@ function Comments() {
   );
 }
 
+/** Error findings no waiver covers (a waiver on every board covers each board's finding). */
+function openErrorFindings(r: RevisionDetail) {
+  const waived = waivedKeys(r.findings ?? [], r.waivers);
+  return (r.findings ?? []).filter((f) => f.severity === 'error' && !waived.has(f.key));
+}
+
 function Decision() {
   const { revision: r } = useWorkspace();
   const approve = useApprove(r.id);
   const reject = useReject(r.id);
   const [comment, setComment] = useState('');
-  const waived = new Set(r.waivers.map((w) => w.findingKey));
-  const open = (r.findings ?? []).filter((f) => f.severity === 'error' && !waived.has(f.key));
+  const [confirming, setConfirming] = useState(false);
+  const open = openErrorFindings(r);
+  const waived = waivedKeys(r.findings ?? [], r.waivers).size;
   const checkedKeys = new Set(r.comments.filter((c) => c.kind === 'checked' && c.findingKey).map((c) => c.findingKey!));
+  const overrides = Object.keys(r.overrides).length;
+  const release = () =>
+    approve.mutate(comment, {
+      onSuccess: () => {
+        setConfirming(false);
+        toast.success('Released. Operators were told by e-mail.');
+      },
+      onError: (e) => {
+        setConfirming(false);
+        toast.error(e.message);
+      },
+    });
   return (
     <section aria-label="Decision" className="flex flex-col gap-3 rounded border border-copper-300 bg-white p-4">
       <h2 className="font-semibold">Your review</h2>
       <p className="text-sm text-ink-600">
-        Look at both sides on the canvas: polarity marks, the bottom side's rotations, crowded corners, fiducials. {r.findings?.length ?? 0} findings ({r.waivers.length} waived, {checkedKeys.size} marked checked).
+        Read the summary above, then look at both sides on the canvas: polarity marks, the bottom side's rotations, crowded corners, fiducials. {r.findings?.length ?? 0} findings ({waived} waived, {checkedKeys.size} marked checked).
       </p>
       {open.length > 0 && <p role="alert" className="rounded bg-sev-error/10 px-2 py-1 text-sm text-sev-error">{open.length} error finding{open.length === 1 ? '' : 's'} neither fixed nor waived: approval is not possible. Reject it back to the author.</p>}
       <label htmlFor="review-comment" className="text-xs font-medium text-ink-700">Comment (required to reject; sent to the author)</label>
       <textarea id="review-comment" rows={3} value={comment} onChange={(e) => setComment(e.target.value)} className="rounded border border-ink-300 p-2 text-sm" />
       <div className="flex gap-2">
-        <Button disabled={open.length > 0 || approve.isPending} onClick={() => approve.mutate(comment, { onSuccess: () => toast.success('Released. Operators were told by e-mail.'), onError: (e) => toast.error(e.message) })}>
+        <Button disabled={open.length > 0 || approve.isPending} aria-haspopup="dialog" onClick={() => setConfirming(true)}>
           {approve.isPending ? 'Releasing…' : 'Approve and release'}
         </Button>
         <Button variant="danger" disabled={comment.trim().length < 3 || reject.isPending} onClick={() => reject.mutate(comment, { onSuccess: () => toast.success('Sent back to the author.'), onError: (e) => toast.error(e.message) })}>
           Reject with comment
         </Button>
       </div>
+      <ConfirmDialog
+        open={confirming}
+        title={`Release ${r.program.name} revision ${r.label}?`}
+        confirmLabel={approve.isPending ? 'Releasing…' : `Release ${r.program.name} ${r.label}`}
+        busy={approve.isPending}
+        onConfirm={release}
+        onCancel={() => setConfirming(false)}
+      >
+        <p>
+          The checks run once more with today’s library, then the placement lists of <strong>{r.program.name}</strong> revision <strong className="num">{r.label}</strong> are written and
+          fixed: released revisions cannot be changed. Operators are told by e-mail.
+        </p>
+        <p className="num">
+          {r.findings?.length ?? 0} findings, {waived} of them waived · {overrides} override{overrides === 1 ? '' : 's'}
+        </p>
+        {comment.trim() && <p>Your comment goes to the author: “{comment.trim()}”</p>}
+      </ConfirmDialog>
     </section>
   );
 }
@@ -65,8 +105,7 @@ export default function ReleaseStage() {
   const withdraw = useWithdraw(r.id);
   const newRev = useNewRevision(r.programId);
   const navigate = useNavigate();
-  const waived = new Set(r.waivers.map((w) => w.findingKey));
-  const openErrors = (r.findings ?? []).filter((f) => f.severity === 'error' && !waived.has(f.key)).length;
+  const openErrors = openErrorFindings(r).length;
   const missing = [!r.imported && 'import a centroid file', !(r.settings.board && r.settings.panel) && 'set the panel', !r.findingsSummary && 'run the checks', openErrors > 0 && `fix or waive ${openErrors} error finding${openErrors === 1 ? '' : 's'}`].filter(Boolean) as string[];
 
   return (
@@ -89,7 +128,7 @@ export default function ReleaseStage() {
       {r.state === 'draft' && r.can.submit && (
         <section aria-label="Submit" className="flex flex-col gap-2 rounded border border-ink-200 bg-white p-4">
           <h2 className="font-semibold">Submit for review</h2>
-          {missing.length ? <p className="text-sm text-ink-600">Before submitting: {missing.join('; ')}.</p> : <p className="text-sm text-ink-600">Another engineer reviews the panel on the canvas and releases it. Engineers are told by e-mail.</p>}
+          {missing.length ? <p className="text-sm text-ink-600">Before submitting: {missing.join('; ')}.</p> : <p className="text-sm text-ink-600">Another engineer reviews the panel on the canvas and releases it. Engineers are told by e-mail. The reviewer sees the summary below.</p>}
           <div className="flex gap-2">
             <Button disabled={missing.length > 0 || submit.isPending} onClick={() => submit.mutate(undefined, { onSuccess: () => toast.success('Submitted for review.'), onError: (e) => toast.error(e.message) })}>Submit for review</Button>
             <Button variant="ghost" onClick={() => confirm(`Withdraw revision ${r.label}? It cannot be reopened.`) && withdraw.mutate(undefined, { onError: (e) => toast.error(e.message) })}>Withdraw</Button>
@@ -103,6 +142,7 @@ export default function ReleaseStage() {
           {r.can.withdraw && <Button variant="ghost" className="mt-2" onClick={() => confirm(`Withdraw revision ${r.label}?`) && withdraw.mutate(undefined, { onError: (e) => toast.error(e.message) })}>Withdraw</Button>}
         </section>
       )}
+      {r.state !== 'withdrawn' && r.imported && <ReviewSummaryPanel revisionId={r.id} title={r.state === 'draft' ? 'What you submit' : r.state === 'in-review' ? 'What is approved' : 'What was released'} />}
       {r.state === 'in-review' && r.can.review && <Decision />}
 
       {(r.state === 'released' || r.state === 'superseded') && (
@@ -114,7 +154,7 @@ export default function ReleaseStage() {
               <li key={f.url} className="flex flex-wrap items-center gap-3 text-sm">
                 <Badge tone="mask">{f.side}</Badge>
                 <a href={f.url} className="font-medium text-copper-700 underline" download>{f.format.toUpperCase()}</a>
-                <span className="num text-xs text-ink-500">{f.placements} placements · {(f.bytes / 1024).toFixed(1)} KB</span>
+                <span className="num text-xs text-ink-500">{f.placements} placements · {fileSize(f.bytes)}</span>
                 <span className="num break-all text-xs">SHA-256 {f.sha256}</span>
               </li>
             ))}

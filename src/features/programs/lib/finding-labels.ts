@@ -1,0 +1,16 @@
+/** What each kind of finding is called on screen (kinds not listed show their own name). */
+export const FINDING_KIND_LABELS: Record<string, string> = {
+  'body-overlap': 'Bodies overlap',
+  'courtyard-overlap': 'Courtyards overlap',
+  'off-board': 'Part off its board',
+  'board-overlap': 'Boards overlap',
+  'off-panel': 'Board off the panel',
+  'fiducial-clearance': 'Part in a fiducial’s clear area',
+  'nozzle-shadow': 'Taller neighbour near the nozzle',
+  'nozzle-size': 'Nozzle wider than the part',
+  'out-of-reach': 'Out of the machine’s reach',
+  'no-package': 'No package',
+  'no-nozzle': 'No nozzle on the machine',
+};
+
+export const findingKindLabel = (kind: string) => FINDING_KIND_LABELS[kind] ?? kind;
