@@ -106,11 +106,12 @@ describe('packages', () => {
     expect(again.body).toMatchObject({ rotationOffset: -90, bodyHeight: 1.1, version: 3 });
   });
 
-  it('engineers and operators read but cannot edit', async () => {
+  it('engineers read but cannot edit; operators do not read (run files carry what they need)', async () => {
     const eng = await signedInAgent(ctx, ['engineer']);
     const op = await signedInAgent(ctx, ['operator']);
     expect((await post(eng, '/library/packages', pkg())).status).toBe(403);
-    expect((await op.a.get('/api/library/packages')).status).toBe(200);
+    expect((await eng.a.get('/api/library/packages')).status).toBe(200);
+    expect((await op.a.get('/api/library/packages')).status).toBe(403);
   });
 });
 
@@ -201,8 +202,8 @@ describe('library file: export and import', () => {
     const file = await getLibraryFile(ctx.ds.manager);
     expect(file.format).toBe('placewright-library/1');
     expect(file.packages.find((p) => p.name === 'SOT-23')).toMatchObject({ rotationOffset: -90, body: { length: 2.9, width: 1.3 } });
-    const op = await signedInAgent(ctx, ['operator']);
-    const res = await op.a.get('/api/library/file').expect(200);
+    const eng = await signedInAgent(ctx, ['engineer']);
+    const res = await eng.a.get('/api/library/file').expect(200);
     expect(res.body.packages.length).toBe(file.packages.length);
   });
 });
