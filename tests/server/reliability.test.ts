@@ -223,6 +223,23 @@ describe('defect 6: over-long strings answer 400 naming the field, never 500', (
     }
   });
 
+  it('a sign-in with a 254-character e-mail (the longest allowed) is refused with 401, not 500', async () => {
+    const ag = await (await import('../helpers/test-app')).agent(ctx);
+    const email = 'a'.repeat(64) + '@' + ('b'.repeat(60) + '.').repeat(3) + 'c'.repeat(6);
+    expect(email.length).toBe(254);
+    const res = await ag.a.post('/api/auth/sign-in').set('X-CSRF-Token', ag.token).send({ email, password: 'whatever-it-is' });
+    expect(res.status, JSON.stringify(res.body)).toBe(401);
+  });
+
+  it('a centroid file with a 5,000-character footprint imports; the part stays unmatched, nothing answers 500', async () => {
+    const eng = await signedInAgent(ctx, ['engineer']);
+    const revId = await createProgram(eng, 'long-footprint');
+    const csv = `Ref,X(mm),Y(mm),Rot,Side,Footprint\nR1,1,1,0,top,${'F'.repeat(5000)}\nR2,2,2,0,top,R0603\n`;
+    const res = await upload(eng, revId, Buffer.from(csv), 'long-footprint.csv', await version(eng, revId));
+    expect(res.status, JSON.stringify(res.body).slice(0, 400)).toBe(200);
+    expect(res.body.imported.rows).toBe(2);
+  });
+
   it.each([
     ['POST /programs', (ag: Agent) => post(ag, '/programs', { name: 'n'.repeat(5000), product: 'p', board: 'b' }), 'name'],
     ['POST /programs (product)', (ag: Agent) => post(ag, '/programs', { name: 'ok', product: 'p'.repeat(5000), board: 'b' }), 'product'],

@@ -32,7 +32,9 @@ export class AuditService {
     manager?: EntityManager,
   ): Promise<void> {
     const repo = (manager ?? this.ds.manager).getRepository(AuditEvent);
-    await repo.insert({ actorId: actor?.id ?? null, actorEmail: actor?.email ?? null, action, target, detail: detail as never, ip });
+    // The columns' widths (target 200, e-mail 254, ip 64): a long value typed at sign-in is shortened, never a 500.
+    const cut = (v: string | null, n: number) => (v !== null && v.length > n ? v.slice(0, n - 1) + '…' : v);
+    await repo.insert({ actorId: actor?.id ?? null, actorEmail: cut(actor?.email ?? null, 254), action, target: cut(target, 200), detail: detail as never, ip: cut(ip, 64) });
   }
 
   async list(q: AuditQuery, onlyActorId?: string): Promise<AuditPage> {
