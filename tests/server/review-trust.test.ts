@@ -250,3 +250,15 @@ describe('package usage before a shared edit (issue 11 item 5)', () => {
     expect((await librarian.a.get('/api/library/packages/00000000-0000-4000-8000-000000000000/usage')).status).toBe(404);
   });
 });
+
+describe('the new routes in the API description', () => {
+  it('names their answers: the review summary and the package usage', async () => {
+    const res = await author.a.get('/api/openapi.json').expect(200);
+    const summary = res.body.paths['/revisions/{id}/review-summary']?.get;
+    const usage = res.body.paths['/library/packages/{id}/usage']?.get;
+    expect(summary?.summary).toMatch(/waivers/);
+    expect(JSON.stringify(summary?.responses?.['200'])).toMatch(/unusedWaivers/);
+    expect(usage?.summary).toMatch(/in work and released/);
+    expect(JSON.stringify(usage?.responses?.['200'])).toMatch(/viaOverride/);
+  });
+});

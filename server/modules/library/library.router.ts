@@ -11,6 +11,7 @@ import {
   importInputSchema,
   machineInputSchema,
   matchQuerySchema,
+  packageUsageSchema,
   nozzleInputSchema,
   proposalInputSchema,
   rejectProposalInputSchema,
@@ -22,7 +23,7 @@ import {
   updateVisionPresetInputSchema,
   visionPresetInputSchema,
 } from '../../../shared/schemas/library.schema';
-import type { ApiRoutes } from '../../lib/routes';
+import { doc, type ApiRoutes } from '../../lib/routes';
 import { validate } from '../../middleware/validate';
 import type { AuditService } from '../audit/audit.service';
 import { actorOf } from '../auth/auth.router';
@@ -63,7 +64,8 @@ export function registerLibraryRoutes(api: ApiRoutes, deps: LibraryDeps) {
   api.post('/library/packages', EDIT, validate(createPackageInputSchema), async (req, res) => res.status(201).json(await library.createPackage(req.body, actorOf(req), ip(req))));
   api.get('/library/packages/:id', READ, params, async (req, res) => res.json(await library.getPackage(id(req))));
   // Which programs a package change reaches (shown before saving one): not for operators.
-  api.get('/library/packages/:id/usage', ['librarian', 'engineer'], params, async (req, res) => res.json(await packageUsage(deps.ds, id(req))));
+  const usageDoc = doc({ summary: 'The program revisions in work and released whose parts the package places', response: packageUsageSchema });
+  api.get('/library/packages/:id/usage', ['librarian', 'engineer'], usageDoc, params, async (req, res) => res.json(await packageUsage(deps.ds, id(req))));
   api.put('/library/packages/:id', EDIT, params, validate(updatePackageInputSchema), async (req, res) => res.json(await library.updatePackage(id(req), req.body, actorOf(req), ip(req))));
   api.delete('/library/packages/:id', EDIT, params, validate(deleteInputSchema), async (req, res) => {
     await library.deletePackage(id(req), req.body.version, actorOf(req), ip(req));

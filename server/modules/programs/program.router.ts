@@ -10,6 +10,7 @@ import {
   createTokenInputSchema,
   problemReportInputSchema,
   rejectInputSchema,
+  reviewSummarySchema,
   reviewDecisionInputSchema,
   sideQuerySchema,
   underlayInputSchema,
@@ -18,7 +19,7 @@ import {
   waiveInputSchema,
 } from '../../../shared/schemas/program.schema';
 import { BadRequestError, UnauthenticatedError } from '../../lib/errors';
-import type { ApiRoutes } from '../../lib/routes';
+import { doc, type ApiRoutes } from '../../lib/routes';
 import { validate, zodIssues } from '../../middleware/validate';
 import { PROGRAM_PAGE_MAX, UPLOAD_LIMIT_BYTES, type ProgramService, type ServiceUser } from './program.service';
 import type { RunFileService } from './run-file.service';
@@ -135,7 +136,8 @@ export function registerProgramRoutes(api: ApiRoutes, programs: ProgramService, 
     res.status(201).json(await programs.waive(id(req), req.body.key, req.body.reason, userOf(req), ip(req), req.body.scope));
   });
 
-  api.get('/revisions/:id/review-summary', eng, validate(uuidParamSchema, 'params'), async (req, res) => {
+  const reviewSummaryDoc = doc({ summary: 'What a reviewer approves: findings by kind with their waivers, the overrides, the changes since the last release', response: reviewSummarySchema });
+  api.get('/revisions/:id/review-summary', eng, reviewSummaryDoc, validate(uuidParamSchema, 'params'), async (req, res) => {
     res.json(await programs.reviewSummary(id(req)));
   });
 
