@@ -88,6 +88,26 @@ describe('defect 2: list and summary queries read only what they show', () => {
     expect(one!.body.revisions[0]).toMatchObject({ placements: placed });
   });
 
+  it('the operator routes (run-file list, set-up sheet, download, problem report) never load the import, the file, the findings or the underlay', async () => {
+    const a = await signedInAgent(ctx, ['engineer']);
+    const b = await signedInAgent(ctx, ['engineer']);
+    const revId = await createProgram(a, 'led-strip');
+    expect((await upload(a, revId, sampleFile('led-strip/led-strip.csv'), 'led-strip.csv', await version(a, revId))).status).toBe(200);
+    await a.a.put(`/api/revisions/${revId}/settings`).set('X-CSRF-Token', a.token).send({ settings: sampleSettings('led-strip/job.json'), version: await version(a, revId) }).expect(200);
+    await a.a.post(`/api/revisions/${revId}/checks`).set('X-CSRF-Token', a.token).expect(200);
+    await a.a.post(`/api/revisions/${revId}/submit`).set('X-CSRF-Token', a.token).expect(200);
+    expect((await post(b, `/revisions/${revId}/approve`, { comment: '' })).status).toBe(200);
+    const op = await signedInAgent(ctx, ['operator']);
+    const sql = await capturingSql(async () => {
+      expect((await op.a.get('/api/run-files')).status).toBe(200);
+      expect((await op.a.get(`/api/run-files/${revId}/setup-sheet`)).status).toBe(200);
+      expect((await op.a.get(`/api/run-files/${revId}/top.csv`)).status).toBe(200);
+      expect((await post(op, `/run-files/${revId}/problems`, { text: 'Feeder 3 jams on the amber LEDs.' })).status).toBe(201);
+    });
+    const heavy = sql.filter((q) => /program_revisions/.test(q) && /\."(imported|centroid_bytes|underlay|findings)"|SELECT \*|\bimported\b|centroid_bytes|underlay/.test(q));
+    expect(heavy, heavy.join('\n---\n')).toEqual([]);
+  });
+
   it('a revision with 30,000 imported rows lists with its count, from the stored count', async () => {
     const eng = await signedInAgent(ctx, ['engineer']);
     const revId = await createProgram(eng, 'big-board');

@@ -14,6 +14,9 @@ export function hashToken(token: string): string {
   return createHash('sha256').update(token).digest('hex');
 }
 
+/** What the run-file routes read of a revision: never its file, import, findings or underlay. */
+const RUN_FILE_COLUMNS = { id: true, programId: true, label: true, state: true, authorId: true, reviewerId: true, settings: true, releasedAt: true } as const;
+
 export class RunFileService {
   constructor(
     private readonly ds: DataSource,
@@ -56,7 +59,7 @@ export class RunFileService {
   async file(revisionId: string, side: string, format: string): Promise<{ file: ReleaseFile; name: string }> {
     const f = await this.ds.getRepository(ReleaseFile).findOneBy({ revisionId, side, format });
     if (!f) throw new NotFoundError(`The ${side} ${format.toUpperCase()} run file of this revision`);
-    const r = await this.ds.getRepository(ProgramRevision).findOneByOrFail({ id: revisionId });
+    const r = await this.ds.getRepository(ProgramRevision).findOneOrFail({ where: { id: revisionId }, select: { id: true, programId: true, label: true } });
     const p = await this.ds.getRepository(Program).findOneByOrFail({ id: r.programId });
     const safe = p.name.replace(/[^A-Za-z0-9._-]+/g, '-');
     return { file: f, name: `${safe}-${r.label}-${side}.${format}` };
@@ -64,7 +67,7 @@ export class RunFileService {
 
   /** What the printable set-up sheet needs: the released lists, the machine, the program. */
   async setupSheet(revisionId: string) {
-    const r = await this.ds.getRepository(ProgramRevision).findOneBy({ id: revisionId });
+    const r = await this.ds.getRepository(ProgramRevision).findOne({ where: { id: revisionId }, select: RUN_FILE_COLUMNS });
     if (!r || (r.state !== 'released' && r.state !== 'superseded')) throw new NotFoundError('The run file');
     const p = await this.ds.getRepository(Program).findOneByOrFail({ id: r.programId });
     const files = await this.ds.getRepository(ReleaseFile).find({ where: { revisionId, format: 'json' }, order: { side: 'DESC' } });
@@ -78,7 +81,7 @@ export class RunFileService {
   }
 
   async reportProblem(revisionId: string, text: string, user: ServiceUser, ip: string | null) {
-    const r = await this.ds.getRepository(ProgramRevision).findOneBy({ id: revisionId });
+    const r = await this.ds.getRepository(ProgramRevision).findOne({ where: { id: revisionId }, select: RUN_FILE_COLUMNS });
     if (!r || (r.state !== 'released' && r.state !== 'superseded')) throw new NotFoundError('The run file');
     const p = await this.ds.getRepository(Program).findOneByOrFail({ id: r.programId });
     await this.ds.transaction(async (m) => {
