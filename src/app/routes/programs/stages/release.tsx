@@ -138,7 +138,7 @@ export default function ReleaseStage() {
 
       {r.state === 'in-review' && !r.can.review && (
         <section className="rounded border border-ink-200 bg-white p-4 text-sm">
-          <p>Submitted {dateTime(r.submittedAt)}. Waiting for review by another engineer — the author cannot approve their own revision.</p>
+          <p>Submitted {dateTime(r.submittedAt)}. Waiting for review by another engineer: no one who changed this revision (created, imported, set up, overrode, waived, checked or submitted it) may approve it.</p>
           {r.can.withdraw && <Button variant="ghost" className="mt-2" onClick={() => confirm(`Withdraw revision ${r.label}?`) && withdraw.mutate(undefined, { onError: (e) => toast.error(e.message) })}>Withdraw</Button>}
         </section>
       )}
