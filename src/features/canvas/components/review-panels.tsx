@@ -1,7 +1,7 @@
 // Side pieces of the review: tools, filters, measure readout, underlay controls, comments.
 import { useId, useMemo, useRef } from 'react';
 import { initialUnderlay } from '../../../../shared/canvas';
-import type { RunResult, Side } from '../../../../shared/pipeline/types';
+import type { RunResult, Side } from '../../../../shared/core';
 import { FINDING_KINDS, type Finding, type FindingKind } from '../../../../shared/schemas/finding.schema';
 import { Button } from '../../../components/ui/button';
 import { SelectField } from '../../../components/ui/field';
@@ -19,7 +19,7 @@ const TOOLS: { id: Tool; label: string; key: string }[] = [
 export function ToolBar({ store, canNote }: { store: CanvasStore; canNote: boolean }) {
   const tool = useCanvasState(store, (s) => s.tool);
   return (
-    <div role="toolbar" aria-label="Canvas tools" className="flex items-center gap-1">
+    <div role="toolbar" aria-label="Canvas tools" className="flex shrink-0 items-center gap-1 whitespace-nowrap">
       {TOOLS.filter((t) => canNote || t.id !== 'note').map((t) => (
         <Button key={t.id} variant={tool === t.id ? 'primary' : 'secondary'} aria-pressed={tool === t.id} onClick={() => store.setTool(t.id)} className="px-2.5 py-1" title={`${t.label} (${t.key})`}>
           {t.label}
@@ -34,7 +34,7 @@ export function ToolBar({ store, canNote }: { store: CanvasStore; canNote: boole
 
 export function SideSwitch({ side, sides, onChange }: { side: Side; sides: Side[]; onChange: (s: Side) => void }) {
   return (
-    <div role="radiogroup" aria-label="Side shown" className="flex overflow-hidden rounded border border-ink-300">
+    <div role="radiogroup" aria-label="Side shown" className="flex shrink-0 overflow-hidden rounded border border-ink-300">
       {(['top', 'bottom'] as const).map((s) => (
         <button
           key={s}
@@ -43,7 +43,7 @@ export function SideSwitch({ side, sides, onChange }: { side: Side; sides: Side[
           aria-checked={side === s}
           disabled={!sides.includes(s)}
           onClick={() => onChange(s)}
-          className={`px-3 py-1 text-sm ${side === s ? 'bg-ink-800 text-white' : 'bg-white text-ink-700 hover:bg-ink-100'} disabled:text-ink-300`}
+          className={`whitespace-nowrap px-3 py-1 text-sm ${side === s ? 'bg-ink-800 text-white' : 'bg-white text-ink-700 hover:bg-ink-100'} disabled:text-ink-300`}
         >
           {s === 'top' ? 'Top (from above)' : 'Bottom (from below)'}
         </button>
