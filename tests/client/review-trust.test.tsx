@@ -374,6 +374,39 @@ describe('Library: a shared package edit shows where it is used and asks first (
     expect(screen.queryByRole('dialog')).toBeNull();
   });
 
+  it('approving a change proposal of a shared package asks the same way', async () => {
+    const PID = '3b5d3c1e-8f3a-4f0e-9a51-2f8f4c0b1a11';
+    const { aliases: _a, ...fields } = { ...blankPackage('LED0603'), bodyLength: 1.6, bodyWidth: 0.8, rotationOffset: 90 };
+    const proposal = { id: PID, kind: 'change', status: 'open', proposerEmail: ellis.email, footprint: null, packageId: ID, packageName: 'LED0603', payload: { package: fields }, note: 'The reel turns them 90°', decidedByEmail: null, decidedAt: null, decisionComment: null, createdAt: T, version: 1 };
+    const decisions: unknown[] = [];
+    mockFetch((url, init) => {
+      if (url === '/api/auth/csrf') return { status: 200, body: { token: 'tok' } };
+      if (url === '/api/me') return { status: 200, body: { user: { id: ID, email: 'lena@harrowcreek.example', name: 'Lena', roles: ['librarian'], active: true, lastSignInAt: null, createdAt: T, version: 1 } } };
+      if (url === '/api/library/proposals') return { status: 200, body: { items: [proposal] } };
+      if (url === `/api/library/proposals/${PID}/approve` && init?.method === 'POST') {
+        decisions.push(JSON.parse(String(init.body)));
+        return { status: 200, body: { ...proposal, status: 'approved', decidedByEmail: 'lena@harrowcreek.example', decidedAt: T } };
+      }
+      if (url === `/api/library/packages/${ID}/usage`) return { status: 200, body: usage(true) };
+      if (url === '/api/library/nozzles') return { status: 200, body: { items: nozzles } };
+      if (url === '/api/library/vision-presets') return { status: 200, body: { items: [] } };
+      if (url === '/api/library/packages' || url === '/api/library/unmatched') return { status: 200, body: { items: [] } };
+      return undefined;
+    });
+    renderRoutes([libraryRoute], '/library/proposals');
+    await userEvent.click(await screen.findByRole('button', { name: /LED0603/ }));
+    const detailPanel = screen.getByRole('region', { name: 'Proposal LED0603' });
+    await waitFor(() => expect(within(detailPanel).getAllByTestId('package-usage-row')).toHaveLength(2));
+    await userEvent.click(within(detailPanel).getByRole('button', { name: 'Approve with these values' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Change LED0603 for 1 program revision in work?' });
+    await userEvent.click(within(dialog).getByRole('button', { name: 'Keep editing' }));
+    expect(decisions).toHaveLength(0);
+    await userEvent.click(within(detailPanel).getByRole('button', { name: 'Approve with these values' }));
+    await userEvent.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Save the change' }));
+    await waitFor(() => expect(decisions).toHaveLength(1));
+    expect(decisions[0]).toMatchObject({ package: { rotationOffset: 90 } });
+  });
+
   it('a change of the notes alone reaches no placement', () => {
     const before = { ...blankPackage('LED0603'), notes: 'old' };
     const { aliases: _a, ...after } = before;

@@ -1,22 +1,20 @@
-import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { toast } from 'sonner';
-import { blankPackage, type CreatePackageInput, type PackageDto, type PackageUsage } from '../../../../shared/schemas/library.schema';
+import { blankPackage, type CreatePackageInput, type PackageDto } from '../../../../shared/schemas/library.schema';
 import { Button } from '../../../components/ui/button';
-import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { TextField } from '../../../components/ui/field';
 import { Badge, EmptyState, ErrorPanel, ProgressBar } from '../../../components/ui/misc';
 import { useCreateAlias, useDeleteAlias } from '../../../features/library/api/aliases';
 import { useNozzles } from '../../../features/library/api/nozzles';
-import { packageUsageQueryOptions, usePackageUsage } from '../../../features/library/api/package-usage';
+import { usePackageUsage } from '../../../features/library/api/package-usage';
 import { useCreatePackage, useDeletePackage, usePackage, useUpdatePackage } from '../../../features/library/api/packages';
 import { useCreateProposal } from '../../../features/library/api/proposals';
 import { useRevisions } from '../../../features/library/api/transfer';
 import { useCreatePackageFromUnmatched } from '../../../features/library/api/unmatched';
 import { useVisionPresets } from '../../../features/library/api/vision-presets';
 import { PackageForm } from '../../../features/library/components/package-form';
-import { PackageUsageList, PackageUsagePanel } from '../../../features/library/components/package-usage';
+import { PackageUsagePanel, usePackageChangeSafeguard } from '../../../features/library/components/package-usage';
 import { useLibraryAccess } from '../../../features/library/hooks/use-library-access';
 import { dateTime } from '../../../lib/format';
 import { toInput } from './shared';
@@ -166,8 +164,7 @@ export function EditPackageRoute() {
   const [note, setNote] = useState('');
   const [base, setBase] = useState<PackageDto | null>(null);
   const usage = usePackageUsage(id, !access.readOnly);
-  const qc = useQueryClient();
-  const [ask, setAsk] = useState<{ usage: PackageUsage; name: string; answer: (save: boolean) => void } | null>(null);
+  const safeguard = usePackageChangeSafeguard(id, q.data?.name ?? 'this package');
   if (q.isPending || refs.pending) return <ProgressBar label="Loading the package" />;
   if (q.isError) return <ErrorPanel error={q.error} />;
   const pkg = base && base.version >= q.data.version ? base : q.data;
@@ -176,10 +173,7 @@ export function EditPackageRoute() {
     const { aliases: _a, ...fields } = v;
     if (access.canEdit) {
       // a shared package: say which programs in work the change reaches, and ask first
-      if (changesPlacement(toInput(pkg), fields)) {
-        const now = await qc.fetchQuery({ ...packageUsageQueryOptions(pkg.id), staleTime: 0 });
-        if (now.inWork > 0 && !(await new Promise<boolean>((answer) => setAsk({ usage: now, name: pkg.name, answer })))) return;
-      }
+      if (changesPlacement(toInput(pkg), fields) && !(await safeguard.confirm())) return;
       const saved = await update.mutateAsync({ id: pkg.id, ...fields, version: pkg.version });
       setBase(saved);
       toast.success(`Saved ${saved.name} (version ${saved.version}).`);
@@ -235,32 +229,7 @@ export function EditPackageRoute() {
         <Aliases pkg={pkg} canEdit={access.canEdit} />
         <History id={pkg.id} />
       </div>
-      <ConfirmDialog
-        open={ask !== null}
-        title={`Change ${ask?.name ?? pkg.name} for ${ask?.usage.inWork ?? 0} program revision${ask?.usage.inWork === 1 ? '' : 's'} in work?`}
-        confirmLabel="Save the change"
-        cancelLabel="Keep editing"
-        onConfirm={() => {
-          ask?.answer(true);
-          setAsk(null);
-        }}
-        onCancel={() => {
-          ask?.answer(false);
-          setAsk(null);
-        }}
-      >
-        {ask && (
-          <>
-            <p>This package is shared. These revisions in work place their parts with it, and change at their next check:</p>
-            <PackageUsageList usage={ask.usage} only="in-work" />
-            {ask.usage.released > 0 && (
-              <p className="text-ink-600">
-                <span className="num">{ask.usage.released}</span> released revision{ask.usage.released === 1 ? '' : 's'} also use{ask.usage.released === 1 ? 's' : ''} it and {ask.usage.released === 1 ? 'is' : 'are'} not affected: released lists never change.
-              </p>
-            )}
-          </>
-        )}
-      </ConfirmDialog>
+      {safeguard.dialog}
     </div>
   );
 }

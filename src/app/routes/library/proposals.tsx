@@ -5,9 +5,11 @@ import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
 import { Badge, EmptyState } from '../../../components/ui/misc';
 import { useNozzles } from '../../../features/library/api/nozzles';
+import { usePackageUsage } from '../../../features/library/api/package-usage';
 import { useDecideProposal, useProposals } from '../../../features/library/api/proposals';
 import { useVisionPresets } from '../../../features/library/api/vision-presets';
 import { PackageForm } from '../../../features/library/components/package-form';
+import { PackageUsagePanel, usePackageChangeSafeguard } from '../../../features/library/components/package-usage';
 import { useLibraryAccess } from '../../../features/library/hooks/use-library-access';
 import { dateTime } from '../../../lib/format';
 import { Loaded } from './shared';
@@ -28,6 +30,10 @@ function Detail({ p, canEdit }: { p: ProposalDto; canEdit: boolean }) {
   const [comment, setComment] = useState('');
   const [pattern, setPattern] = useState(String(p.payload.pattern ?? ''));
   const open = p.status === 'open';
+  // approving a change edits a shared package: say where it is used, and ask as the package page does
+  const guarded = p.kind === 'change' && !!p.packageId && open && canEdit;
+  const usage = usePackageUsage(p.packageId ?? undefined, guarded);
+  const safeguard = usePackageChangeSafeguard(guarded ? p.packageId : null, p.packageName ?? 'the package');
   const proposedPkg = p.payload.package ? ({ ...blankPackage(), aliases: [], ...(p.payload.package as object) } as CreatePackageInput) : null;
   const reject = () =>
     decide.mutate({ id: p.id, decision: 'reject', comment }, { onSuccess: () => toast.success('Rejected; the proposer was told.'), onError: (e) => toast.error(e.message) });
@@ -63,7 +69,15 @@ function Detail({ p, canEdit }: { p: ProposalDto; canEdit: boolean }) {
           withAliases={p.kind === 'new-package'}
           readOnly={!open || !canEdit}
           submitLabel="Approve with these values"
-          onSubmit={open && canEdit ? (v) => decide.mutateAsync({ id: p.id, decision: 'approve', package: v, comment }).then(() => toast.success(`Approved: ${v.name} is in the library; the proposer was told.`)) : undefined}
+          onSubmit={
+            open && canEdit
+              ? async (v) => {
+                  if (!(await safeguard.confirm())) return;
+                  await decide.mutateAsync({ id: p.id, decision: 'approve', package: v, comment });
+                  toast.success(`Approved: ${v.name} is in the library; the proposer was told.`);
+                }
+              : undefined
+          }
           actions={open && canEdit ? <Button variant="danger" disabled={!comment.trim() || decide.isPending} onClick={reject}>Reject</Button> : undefined}
         />
       ) : (
@@ -74,6 +88,8 @@ function Detail({ p, canEdit }: { p: ProposalDto; canEdit: boolean }) {
           </div>
         )
       )}
+      {guarded && <PackageUsagePanel q={usage} />}
+      {safeguard.dialog}
     </section>
   );
 }

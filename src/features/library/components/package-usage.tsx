@@ -1,7 +1,11 @@
 // Where a package is used: shown on its page and again before a change is saved.
+import { useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { PackageUsage } from '../../../../shared/schemas/library.schema';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { Badge, ErrorPanel, ProgressBar } from '../../../components/ui/misc';
+import { packageUsageQueryOptions } from '../api/package-usage';
 
 const STATE: Record<PackageUsage['revisions'][number]['state'], string> = { draft: 'draft', 'in-review': 'in review', released: 'released' };
 
@@ -49,4 +53,49 @@ export function PackageUsagePanel({ q }: { q: { isPending: boolean; isError: boo
       )}
     </section>
   );
+}
+
+/**
+ * The safeguard before a shared package changes: `confirm()` reads where the package is used now
+ * and, when a revision in work would change, asks in a dialog (render `dialog`); it resolves true
+ * to go on saving. Released revisions are listed as not affected.
+ */
+export function usePackageChangeSafeguard(packageId: string | null | undefined, packageName: string) {
+  const qc = useQueryClient();
+  const [ask, setAsk] = useState<{ usage: PackageUsage; answer: (save: boolean) => void } | null>(null);
+  const confirm = async (): Promise<boolean> => {
+    if (!packageId) return true;
+    const now = await qc.fetchQuery({ ...packageUsageQueryOptions(packageId), staleTime: 0 });
+    if (now.inWork === 0) return true;
+    return new Promise<boolean>((answer) => setAsk({ usage: now, answer }));
+  };
+  const close = (save: boolean) => {
+    ask?.answer(save);
+    setAsk(null);
+  };
+  const n = ask?.usage.inWork ?? 0;
+  const released = ask?.usage.released ?? 0;
+  const dialog = (
+    <ConfirmDialog
+      open={ask !== null}
+      title={`Change ${packageName} for ${n} program revision${n === 1 ? '' : 's'} in work?`}
+      confirmLabel="Save the change"
+      cancelLabel="Keep editing"
+      onConfirm={() => close(true)}
+      onCancel={() => close(false)}
+    >
+      {ask && (
+        <>
+          <p>This package is shared. These revisions in work place their parts with it, and change at their next check:</p>
+          <PackageUsageList usage={ask.usage} only="in-work" />
+          {released > 0 && (
+            <p className="text-ink-600">
+              <span className="num">{released}</span> released revision{released === 1 ? ' also uses' : 's also use'} it and {released === 1 ? 'is' : 'are'} not affected: released lists never change.
+            </p>
+          )}
+        </>
+      )}
+    </ConfirmDialog>
+  );
+  return { confirm, dialog };
 }
