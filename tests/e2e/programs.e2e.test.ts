@@ -88,6 +88,8 @@ describe('a program from upload to released run file, in Chromium', () => {
     await signInAs(page, h.baseUrl, 'rowan@harrowcreek.example', DEMO_PASSWORD);
     await page.goto(revisionUrl);
     await page.getByRole('button', { name: 'Approve and release' }).click();
+    // the release is confirmed in a dialog naming the program and revision
+    await page.getByRole('dialog', { name: /^Release .+ revision [A-Z]+\?$/ }).getByRole('button', { name: /^Release / }).click();
     await page.getByRole('region', { name: 'Released files' }).waitFor();
     await page.screenshot({ path: `${SCREENSHOT_DIR}/program-released.png`, fullPage: true });
 
