@@ -230,6 +230,21 @@ describe('defect 5: concurrent creates with the same key give one 201 and 409s n
   });
 });
 
+describe('defect 5, continued: vision presets and machine profiles', () => {
+  it.each([
+    ['vision presets', '/library/vision-presets', (n: string) => ({ name: n, method: 'body-outline', lighting: 'top', sizeTolerancePct: 10, maxCentringOffset: 0.5, maxAngleCorrection: 5, notes: '' }), 'library_vision_presets'],
+    ['machine profiles', '/library/machines', (n: string) => ({ name: n, reachX: 400, reachY: 300, nozzles: [], maxPartHeight: 10, notes: '' }), 'library_machines'],
+  ])('%s: one 201, seven 409 naming the name, one row', async (_label, path, body, table) => {
+    const lib = await signedInAgent(ctx, ['librarian']);
+    const names = ['Race Preset', 'race preset', 'RACE PRESET', 'Race preset'];
+    const results = await Promise.all(Array.from({ length: 8 }, (_, i) => post(lib, path, body(names[i % 4]))));
+    expect(results.map((r) => r.status).sort(), JSON.stringify(results.map((r) => r.body))).toEqual([201, 409, 409, 409, 409, 409, 409, 409]);
+    for (const r of results.filter((x) => x.status === 409)) expect(r.body.errors.map((e: { path: string }) => e.path)).toEqual(['name']);
+    const [{ n }] = await ctx.ds.query(`SELECT count(*)::int AS n FROM ${table} WHERE lower(name) = 'race preset'`);
+    expect(n).toBe(1);
+  });
+});
+
 describe('defect 6: over-long strings answer 400 naming the field, never 500', () => {
   it('a centroid file with a 5,000-character name', async () => {
     const eng = await signedInAgent(ctx, ['engineer']);
