@@ -1,6 +1,6 @@
 // Placewright command line: `npm run --silent cli -- COMMAND [options]` (CLI.md).
 // A small dispatcher; each command lives in server/cli/<command>.ts and exports a `Command`.
-import { EngineInputError } from '../shared/pipeline/errors';
+import { EngineInputError } from '../shared/core';
 import { CliUsageError, EXIT_BAD_INPUT, type CliIo, type Command } from './cli/common';
 
 /** Registration point: one line per command, loaded on demand. */

@@ -1,4 +1,4 @@
-import type { Side, TransformResult } from '../../shared/pipeline/types';
+import type { Side, TransformResult } from '../../shared/core';
 import { emit, one, onePositional, parseArgs, runJobFile, warn, type Command } from './common';
 
 const spec = { side: { values: ['top', 'bottom'] }, out: {} } as const;

@@ -1,12 +1,12 @@
 // Shared plumbing of the command line: options, file I/O, job loading, output, exit codes.
 import { readFile, writeFile } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
-import { EngineInputError } from '../../shared/pipeline/errors';
-import { parseWith } from '../../shared/pipeline/parse-input';
+import { EngineInputError } from '../../shared/core';
+import { parseWith } from '../../shared/core';
 import { jobSchema, type Job } from '../../shared/schemas/job.schema';
 import { libraryFileSchema, type LibraryFile } from '../../shared/schemas/library-file.schema';
 import { runRevision, type RevisionRun } from '../../shared/engine';
-import type { RunResult, Side } from '../../shared/pipeline/types';
+import type { RunResult, Side } from '../../shared/core';
 
 export const EXIT_OK = 0;
 export const EXIT_FINDINGS = 1;

@@ -1,6 +1,6 @@
-import { importCentroid } from '../../shared/centroid/import';
-import { FIELDS, isField, type Field } from '../../shared/centroid/headers';
-import type { BottomRotation, Units } from '../../shared/pipeline/types';
+import { importCentroid } from '../../shared/centroid';
+import { FIELDS, isField, type Field } from '../../shared/centroid';
+import type { BottomRotation, Units } from '../../shared/core';
 import { CliUsageError, emit, one, onePositional, parseArgs, readText, type Command } from './common';
 
 const spec = {

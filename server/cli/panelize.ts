@@ -1,5 +1,5 @@
-import { writePlacementListCsv, writePlacementListJson } from '../../shared/placement-list/write';
-import type { Side } from '../../shared/pipeline/types';
+import { writePlacementListCsv, writePlacementListJson } from '../../shared/placement-list';
+import type { Side } from '../../shared/core';
 import { CliUsageError, emit, one, onePositional, parseArgs, runJobFile, warn, type Command } from './common';
 
 const spec = {

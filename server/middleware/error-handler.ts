@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { Problem } from '../../shared/schemas/problem.schema';
-import { EngineInputError } from '../../shared/pipeline/errors';
+import { EngineInputError } from '../../shared/core';
 import { DomainError, NotFoundError, ServiceUnavailableError, isDatabaseUnavailable, uniqueViolation } from '../lib/errors';
 
 function problem(status: number, title: string, detail: string, errors: Problem['errors'] = []): Problem {

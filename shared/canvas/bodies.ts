@@ -2,7 +2,7 @@
 // and the spatial index's boxes. Pure; everything is derived from what the engine computed
 // (RunResult body centre x/y, rotation, bodyLength/bodyWidth, courtyard), nothing is re-derived
 // from the design.
-import type { PlacementColumns } from '../pipeline/types';
+import type { PlacementColumns } from '../core';
 
 /** A part without a package is drawn (and hit) as a small square of this side, mm. */
 export const POINT_BODY = 0.5;

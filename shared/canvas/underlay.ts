@@ -6,7 +6,7 @@
 //   T_image(u, v) = S(u, −v), with S the similarity fitted from (u, −v) to the panel points.
 import { applyAffine, composeAffine, type Affine } from '../geometry';
 import { fitTransform, transformToAffine } from '../fiducials';
-import type { XY } from '../pipeline/types';
+import type { XY } from '../core';
 
 const FLIP_Y: Affine = { a: 1, b: 0, c: 0, d: -1, tx: 0, ty: 0 };
 

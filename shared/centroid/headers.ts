@@ -1,6 +1,6 @@
 // Header recognition: case- and punctuation-insensitive families of column names, and the unit
 // suffix a header may carry (`X(mil)`, `PosX [in]`, `Center-X(mm)`, `Mid X mm`).
-import type { Units } from '../pipeline/types';
+import type { Units } from '../core';
 
 export const FIELDS = ['ref', 'x', 'y', 'rotation', 'side', 'footprint', 'value', 'partNumber', 'dnp'] as const;
 export type Field = (typeof FIELDS)[number];

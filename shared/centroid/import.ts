@@ -1,7 +1,7 @@
 // Centroid import: dialect sniffing, header mapping, units, normalisation (CLI.md "Import").
 import Papa from 'papaparse';
 import { toMm } from '../geometry';
-import { EngineInputError } from '../pipeline/errors';
+import { EngineInputError } from '../core';
 import type {
   BottomRotation,
   CentroidDialect,
@@ -12,7 +12,7 @@ import type {
   ImportedPlacement,
   Side,
   Units,
-} from '../pipeline/types';
+} from '../core';
 import { firstFormulaCell } from '../csv-safety';
 import { analyseHeader, FIELDS, REQUIRED_FIELDS, type Field, type HeaderInfo } from './headers';
 import { parseFlagCell, parseNumberCell, parseRotationCell, parseSideCell, plainNumber } from './values';

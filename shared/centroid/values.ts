@@ -1,5 +1,5 @@
 // Cell value parsing: numbers (decimal point or comma, optional unit suffix), sides, do-not-place.
-import type { Side, Units } from '../pipeline/types';
+import type { Side, Units } from '../core';
 import { unitWord } from './headers';
 
 /** 0x.., 0b.., 0o.. are numbers to `+s` but not to a centroid file */

@@ -3,7 +3,8 @@
 // line and the browser preview all come through here, so a revision gives the same placements
 // and the same findings wherever it runs. Pure and synchronous (no I/O): see ../README.md.
 import { importCentroid } from '../centroid';
-import { EngineInputError, runJob, type EngineWarning, type ImportResult, type RunResult, type Side, type Units } from '../pipeline';
+import { EngineInputError, type EngineWarning, type ImportResult, type RunResult, type Side, type Units } from '../core';
+import { runJob } from '../pipeline';
 import type { Job } from '../schemas/job.schema';
 import type { LibraryFile } from '../schemas/library-file.schema';
 import { verify, verifyInputFromRuns, VerifyInputError, type VerifyResult } from '../verify';

@@ -10,8 +10,8 @@ import {
   signedDeg,
   type Affine,
 } from '../geometry';
-import { EngineInputError } from '../pipeline/errors';
-import type { EngineWarning, Residual, TransformChoice, TransformModel, TransformResult, XY } from '../pipeline/types';
+import { EngineInputError } from '../core';
+import type { EngineWarning, Residual, TransformChoice, TransformModel, TransformResult, XY } from '../core';
 
 export interface AlignLimits {
   /** mm */

@@ -1,7 +1,7 @@
 // Panel step-and-repeat (DOMAIN.md section 3) and the bottom flip (section 2).
 import { boundsOf, composeAffine, mapRect, normDeg, rotationAffine, type Affine } from '../geometry';
-import { EngineInputError } from '../pipeline/errors';
-import type { FlipAxis, Side } from '../pipeline/types';
+import { EngineInputError } from '../core';
+import type { FlipAxis, Side } from '../core';
 import type { JobPanel } from '../schemas/job.schema';
 
 export interface BoardInstance {

@@ -1,6 +1,5 @@
-// The engine's public entry: one job run, the result types, errors and record helpers.
+// One side of one panel: import → panel → fiducials → library → output-frame placements
+// (runJob), and a run over JSON. The revision as a whole (both sides and the checks) is run by
+// ../engine, which everything outside shared/ calls.
 export { runJob, type RunJobInput } from './run-job';
-export { EngineInputError, type EngineInputErrorFields } from './errors';
-export { parseWith, issuePath } from './parse-input';
-export { placementRecord, placementRecords, allocatePlacementColumns, defineLazyColumns, filledArray } from './records';
-export type * from './types';
+export { runResultToJson, runResultFromJson, type RunResultJson, type PlacementColumnsJson } from './serialize';

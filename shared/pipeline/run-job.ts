@@ -1,13 +1,13 @@
 // One engine run: import → panel → fiducials → library → output-frame placements (one side).
-import { importCentroid, placementsToTable } from '../centroid/import';
+import { importCentroid, placementsToTable } from '../centroid';
 import { applyAffine, composeAffine, mapRect, type Affine } from '../geometry';
 import { fitTransform, transformToAffine } from '../fiducials';
 import { Assigner, DEFAULT_COURTYARD } from '../library';
 import { boardInstances, designToSidePanel, sideAffine, sideRotationTerm } from '../panel';
 import type { Job } from '../schemas/job.schema';
 import type { LibraryFile } from '../schemas/library-file.schema';
-import { EngineInputError } from './errors';
-import { allocatePlacementColumns, defineLazyColumns } from './records';
+import { EngineInputError } from '../core';
+import { allocatePlacementColumns, defineLazyColumns } from '../core';
 import type {
   BoardInstanceResult,
   PlacementColumns,
@@ -21,7 +21,7 @@ import type {
   TransformResult,
   UnmatchedFootprint,
   XY,
-} from './types';
+} from '../core';
 
 export interface RunJobInput {
   /** the parsed job (jobSchema output) */

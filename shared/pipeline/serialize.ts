@@ -1,6 +1,6 @@
 // RunResult over JSON: typed arrays become plain arrays (NaN → null) and back. Pure; used by the
 // server's API and by the client to rebuild the struct of arrays the canvas draws from.
-import type { PlacementColumns, RunResult } from './types';
+import type { PlacementColumns, RunResult } from '../core';
 
 const F64 = ['x', 'y', 'originX', 'originY', 'rotation', 'bodyLength', 'bodyWidth', 'bodyHeight', 'courtyard', 'holderRadius', 'nozzleTip'] as const;
 const I32 = ['seq', 'board', 'sourceIndex'] as const;

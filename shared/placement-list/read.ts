@@ -1,7 +1,7 @@
 // Neutral placement list reader: CSV (checksum verified) and JSON, back to the same placements.
 import Papa from 'papaparse';
 import { z } from 'zod';
-import { EngineInputError } from '../pipeline/errors';
+import { EngineInputError } from '../core';
 import { unneutraliseCell } from '../csv-safety';
 import { sha256Hex } from './format';
 import { CSV_HEADER, LIST_FORMAT, type ListMeta, type ListPlacement, type ListTransform, type PlacementList } from './types';

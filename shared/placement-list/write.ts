@@ -1,5 +1,5 @@
 // Neutral placement list writer (PLACEMENT-LIST.md), CSV and JSON.
-import type { RunResult, TransformResult } from '../pipeline/types';
+import type { RunResult, TransformResult } from '../core';
 import { csvField } from '../csv-safety'; // RFC 4180 fields with spreadsheet formulas neutralised (OWASP)
 import { fmt3, fmtRot3, fmtShort, sha256Hex } from './format';
 import { CSV_HEADER, LIST_FORMAT, type ListMeta, type ListTransform, type PlacementList, type WriteOptions } from './types';

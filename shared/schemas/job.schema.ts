@@ -1,6 +1,6 @@
 // The job file (CLI.md "Job file"), zod 4. Strict objects: a misspelt key is an error, not ignored.
 import { z } from 'zod';
-import { FIELDS } from '../centroid/headers';
+import { FIELDS } from '../centroid';
 
 const finite = z.number().finite();
 const positive = z.number().finite().positive();

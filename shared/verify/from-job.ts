@@ -8,7 +8,7 @@
 //   and tip diameter 0 (no nozzle-size test).
 // - Do-not-place parts are not in a run's placements, so they are never checked.
 // - Skipped boards place nothing and are left out of the board layout checks.
-import type { Quad, RunResult } from '../pipeline/types';
+import type { Quad, RunResult } from '../core';
 import {
   SIDE_BOTTOM,
   SIDE_TOP,

@@ -3,9 +3,9 @@
 import Papa from 'papaparse';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
-import { importCentroid } from '../../shared/centroid/import';
-import { runJob } from '../../shared/pipeline/run-job';
-import { writePlacementListCsv } from '../../shared/placement-list/write';
+import { importCentroid } from '../../shared/centroid';
+import { runJob } from '../../shared/pipeline';
+import { writePlacementListCsv } from '../../shared/placement-list';
 import { jobSchema } from '../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
 import { mulberry32 } from '../helpers/prng';

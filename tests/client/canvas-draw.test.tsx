@@ -1,7 +1,7 @@
 // The draw functions against a recording 2-D context: what reaches the canvas, in which frame.
 import { describe, expect, it } from 'vitest';
-import { allocatePlacementColumns } from '../../shared/pipeline/records';
-import type { Quad, RunResult } from '../../shared/pipeline/types';
+import { allocatePlacementColumns } from '../../shared/core';
+import type { Quad, RunResult } from '../../shared/core';
 import { drawBase, drawBodies, drawOverlay } from '../../src/features/canvas/draw';
 import { buildScene } from '../../src/features/canvas/scene';
 import { DEFAULT_LAYERS } from '../../src/features/canvas/store';

@@ -2,12 +2,12 @@ import { act, fireEvent, render, screen, within } from '@testing-library/react';
 import { readFileSync } from 'node:fs';
 import { useState } from 'react';
 import { describe, expect, it, vi } from 'vitest';
-import { runJob } from '../../shared/pipeline/run-job';
-import type { RunResult, Side } from '../../shared/pipeline/types';
+import { runJob } from '../../shared/pipeline';
+import type { RunResult, Side } from '../../shared/core';
 import { jobSchema } from '../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
-import { verifyInputFromRuns } from '../../shared/verify/from-job';
-import { verify } from '../../shared/verify/verify';
+import { verifyInputFromRuns } from '../../shared/verify';
+import { verify } from '../../shared/verify';
 import { PanelCanvas, PanelReview, type NewNote } from '../../src/features/canvas';
 
 function faultyRuns() {

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { runJob } from '../../shared/pipeline/run-job';
-import type { RunResult, Side } from '../../shared/pipeline/types';
+import { runJob } from '../../shared/pipeline';
+import type { RunResult, Side } from '../../shared/core';
 import { jobSchema } from '../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
-import { verifyInputFromRuns } from '../../shared/verify/from-job';
-import { verify } from '../../shared/verify/verify';
+import { verifyInputFromRuns } from '../../shared/verify';
+import { verify } from '../../shared/verify';
 import { buildScene, dimMask } from '../../src/features/canvas/scene';
 import { CanvasStore, DEFAULT_LAYERS, LAYERS } from '../../src/features/canvas/store';
 

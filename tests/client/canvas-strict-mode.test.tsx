@@ -5,7 +5,7 @@ import { act, fireEvent, render, screen } from '@testing-library/react';
 import { readFileSync } from 'node:fs';
 import { StrictMode } from 'react';
 import { describe, expect, it, vi } from 'vitest';
-import { runJob } from '../../shared/pipeline/run-job';
+import { runJob } from '../../shared/pipeline';
 import { jobSchema } from '../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
 import { PanelCanvas } from '../../src/features/canvas';

@@ -3,7 +3,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MailMessage } from '../../server/db/entities/mail-message.entity';
 import { DEMO_PASSWORD } from '../../server/db/seed/demo-users';
-import { recordUnmatchedFootprints } from '../../server/modules/library/library.service';
+import { recordUnmatchedFootprints } from '../../server/modules/library/unmatched.service';
 import { SCREENSHOT_DIR, signInAs, startBrowserHarness, type BrowserHarness } from '../helpers/browser';
 
 let h: BrowserHarness;

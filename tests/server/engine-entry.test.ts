@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { main } from '../../server/cli';
 import { readPlacementListCsv, writePlacementListCsv } from '../../shared/placement-list';
-import { runResultFromJson } from '../../shared/pipeline/serialize';
+import { runResultFromJson } from '../../shared/pipeline';
 import { SAMPLES, sampleFile, sampleLibrary, sampleSettings } from '../helpers/programs';
 import { signedInAgent, startTestApp, truncateAll, type TestContext } from '../helpers/test-app';
 

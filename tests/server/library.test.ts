@@ -5,7 +5,8 @@ import { LibraryPackage } from '../../server/db/entities/library-package.entity'
 import { LibraryRevision } from '../../server/db/entities/library-revision.entity';
 import { MailMessage } from '../../server/db/entities/mail-message.entity';
 import { seedStarterLibrary } from '../../server/db/seed/starter-library';
-import { getLibraryFile, recordUnmatchedFootprints } from '../../server/modules/library/library.service';
+import { getLibraryFile } from '../../server/modules/library/library.service';
+import { recordUnmatchedFootprints } from '../../server/modules/library/unmatched.service';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
 import { blankPackage, type CreatePackageInput } from '../../shared/schemas/library.schema';
 import { signedInAgent, startTestApp, truncateAll, type TestContext } from '../helpers/test-app';

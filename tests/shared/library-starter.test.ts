@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { STARTER_LIBRARY } from '../../server/db/seed/starter-library.data';
 import { parseLibraryFile } from '../../server/modules/library/library-file';
-import { PackageMatcher } from '../../shared/library/index';
+import { PackageMatcher } from '../../shared/library';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
 import { packageWarnings, tapeProblem } from '../../shared/schemas/library.schema';
 

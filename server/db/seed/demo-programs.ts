@@ -6,7 +6,8 @@ import { settingsFromJob, type RevisionSettings } from '../../../shared/schemas/
 import { Program } from '../entities/program.entity';
 import { User } from '../entities/user.entity';
 import { AuditService } from '../../modules/audit/audit.service';
-import { getLibraryFile, recordUnmatchedFootprints } from '../../modules/library/library.service';
+import { getLibraryFile } from '../../modules/library/library.service';
+import { recordUnmatchedFootprints } from '../../modules/library/unmatched.service';
 import type { Mailer } from '../../modules/mail/mailer';
 import { CheckPool } from '../../modules/programs/check-pool';
 import { ProgramService, type ServiceUser } from '../../modules/programs/program.service';

@@ -2,7 +2,7 @@
 // with a revision row and an audit event for every edit and optimistic locking by version.
 import type { DataSource, EntityManager, EntityTarget, ObjectLiteral } from 'typeorm';
 import { In, IsNull } from 'typeorm';
-import { PackageMatcher } from '../../../shared/library/index';
+import { PackageMatcher } from '../../../shared/library';
 import { libraryFileSchema, type LibraryFile } from '../../../shared/schemas/library-file.schema';
 import {
   isPattern,
@@ -35,7 +35,6 @@ import type { AuditActor, AuditService } from '../audit/audit.service';
 import { checkCsv } from './csv-import';
 import { parseLibraryFile, toLibraryFileObject, toLibraryFileText, type LibraryRows } from './library-file';
 
-export { recordUnmatchedFootprints } from './unmatched.service';
 
 const iso = (d: Date) => d.toISOString();
 

@@ -3,7 +3,7 @@
 // aliases and patterns, or a part's override naming the package.
 import { In, type DataSource } from 'typeorm';
 import { PackageMatcher } from '../../../shared/library';
-import type { ImportResult } from '../../../shared/pipeline/types';
+import type { ImportResult } from '../../../shared/core';
 import type { PackageUsage } from '../../../shared/schemas/library.schema';
 import { LibraryPackage } from '../../db/entities/library-package.entity';
 import { Program, ProgramRevision } from '../../db/entities/program.entity';

@@ -2,7 +2,7 @@
 // (optionally editing) or rejects with a comment. Mail goes to the librarians on a new proposal
 // and to the proposer on the decision.
 import type { DataSource } from 'typeorm';
-import { PackageMatcher } from '../../../shared/library/index';
+import { PackageMatcher } from '../../../shared/library';
 import type { ApproveProposalInput, CreatePackageInput, PackageInput, ProposalDto, ProposalInput } from '../../../shared/schemas/library.schema';
 import { LibraryPackage } from '../../db/entities/library-package.entity';
 import { LibraryProposal } from '../../db/entities/library-proposal.entity';

@@ -1,6 +1,6 @@
 import { Piscina } from 'piscina';
 import { fileURLToPath } from 'node:url';
-import type { VerifyResult } from '../../../shared/verify/types';
+import type { VerifyResult } from '../../../shared/verify';
 import { DomainError } from '../../lib/errors';
 import type { EngineInput, ReleaseOutput } from './engine';
 

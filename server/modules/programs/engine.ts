@@ -3,7 +3,7 @@
 // Pure (no database), so the check worker thread imports it too.
 import { importCentroid, importCentroidCollecting, type CollectedImport } from '../../../shared/centroid';
 import { runRevision, type RevisionRun, type SideSelection } from '../../../shared/engine';
-import type { ImportResult } from '../../../shared/pipeline';
+import type { ImportResult } from '../../../shared/core';
 import { writePlacementListCsv, writePlacementListJson } from '../../../shared/placement-list';
 import type { VerifyResult } from '../../../shared/verify';
 import { jobSchema, type Job } from '../../../shared/schemas/job.schema';

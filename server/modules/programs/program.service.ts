@@ -1,11 +1,11 @@
 import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import { unmatchedFootprints } from '../../../shared/library';
-import type { ImportResult, Side } from '../../../shared/pipeline/types';
-import { runResultToJson, type RunResultJson } from '../../../shared/pipeline/serialize';
+import type { ImportResult, Side } from '../../../shared/core';
+import { runResultToJson, type RunResultJson } from '../../../shared/pipeline';
 import type { Finding } from '../../../shared/schemas/finding.schema';
 import type { LibraryFile } from '../../../shared/schemas/library-file.schema';
-import { everyBoardKey, everyBoardKeyOfKey, waiverLookup } from '../../../shared/review/waivers';
+import { everyBoardKey, everyBoardKeyOfKey, waiverLookup } from '../../../shared/review';
 import {
   revisionSettingsSchema,
   type CommentDto,

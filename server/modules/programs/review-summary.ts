@@ -1,7 +1,7 @@
 // The review summary: what a reviewer approves, in one read. Pure functions over stored data
 // (the revision, its waivers, the last released revision); ProgramService loads and calls them.
-import type { ImportResult, ImportedPlacement } from '../../../shared/pipeline/types';
-import { everyBoardRefs, waiverLookup } from '../../../shared/review/waivers';
+import type { ImportResult, ImportedPlacement } from '../../../shared/core';
+import { everyBoardRefs, waiverLookup } from '../../../shared/review';
 import { FINDING_KINDS, type Finding, type FindingKind } from '../../../shared/schemas/finding.schema';
 import type { Override, ReviewSummaryDto, ReviewWaiver, RevisionChanges } from '../../../shared/schemas/program.schema';
 import type { Program, ProgramRevision, RevisionWaiver } from '../../db/entities/program.entity';

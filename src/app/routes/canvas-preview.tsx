@@ -3,7 +3,7 @@
 // marks and the underlay live in this page's state.
 import { useMemo, useState } from 'react';
 import { runRevision } from '../../../shared/engine';
-import type { RunResult, Side } from '../../../shared/pipeline/types';
+import type { RunResult, Side } from '../../../shared/core';
 import { jobSchema } from '../../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../../shared/schemas/library-file.schema';
 import { SelectField } from '../../components/ui/field';

@@ -5,7 +5,7 @@
 import { bodyQuads, buildBodyIndex, invertAffine, pinOneMarks, quadBoxes, type BodyIndex } from '../../../shared/canvas';
 import { boundsOf, type Affine, type Box } from '../../../shared/geometry';
 import { transformToAffine } from '../../../shared/fiducials';
-import type { RunResult } from '../../../shared/pipeline/types';
+import type { RunResult } from '../../../shared/core';
 import type { Finding } from '../../../shared/schemas/finding.schema';
 import type { SelectionLinks } from './store';
 

@@ -3,7 +3,7 @@
 // so that a pan or a hover re-renders only the pieces that show them, never the tables.
 import { useSyncExternalStore } from 'react';
 import type { FindingKind } from '../../../shared/schemas/finding.schema';
-import type { ViewTransform } from '../../../shared/canvas/view';
+import type { ViewTransform } from '../../../shared/canvas';
 
 /** Layers, in the order of their number-key shortcuts 1…9, 0. */
 export const LAYERS = [

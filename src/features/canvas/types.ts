@@ -1,5 +1,5 @@
 import type { Affine } from '../../../shared/geometry';
-import type { Side, XY } from '../../../shared/pipeline/types';
+import type { Side, XY } from '../../../shared/core';
 export type { CanvasNote } from './draw';
 
 /** An image under the drawing, placed by an image-pixel → output-frame transform. The lead stores

@@ -3,8 +3,8 @@
 // `window.__bench` for tests/bench/canvas.bench.ts to read.
 import { createRoot } from 'react-dom/client';
 import { CanvasStore, DEFAULT_LAYERS, PanelCanvas, PanelReview, type DrawStats, type LayerId } from '../../../src/features/canvas';
-import { verifyInputFromRuns } from '../../../shared/verify/from-job';
-import { verify } from '../../../shared/verify/verify';
+import { verifyInputFromRuns } from '../../../shared/verify';
+import { verify } from '../../../shared/verify';
 import { outlineOnly, syntheticRun } from './panel';
 
 declare global {

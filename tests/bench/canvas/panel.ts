@@ -3,8 +3,8 @@
 // board; the bench machine reaches 420 mm), a package mix dominated by 0402 and 0603 chips, rotations in quarter turns with a few
 // odd angles. Parts are placed by rejection sampling on an occupancy grid so that bodies mostly
 // keep apart, as on a real board; the few that find no free spot overlap (findings to draw).
-import { allocatePlacementColumns } from '../../../shared/pipeline/records';
-import type { BoardInstanceResult, Quad, RunResult } from '../../../shared/pipeline/types';
+import { allocatePlacementColumns } from '../../../shared/core';
+import type { BoardInstanceResult, Quad, RunResult } from '../../../shared/core';
 import { mulberry32 } from '../../helpers/prng';
 
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { bodyQuads, pinOneMarks, pinOneStyle, quadBoxes } from '../../../shared/canvas/bodies';
 import { buildBodyIndex, hitBox, hitBoxBruteForTest, hitPoint, hitPointBrute } from './helpers';
-import { allocatePlacementColumns } from '../../../shared/pipeline/records';
+import { allocatePlacementColumns } from '../../../shared/core';
 
 function cols(parts: { x: number; y: number; rot: number; L: number; W: number; pkg?: string; cy?: number }[]) {
   const p = allocatePlacementColumns(parts.length);

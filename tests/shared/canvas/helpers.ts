@@ -1,4 +1,4 @@
-import type { PlacementColumns } from '../../../shared/pipeline/types';
+import type { PlacementColumns } from '../../../shared/core';
 export { buildBodyIndex, hitBox, hitPoint, hitPointBrute } from '../../../shared/canvas/hit';
 
 export function hitBoxBruteForTest(p: PlacementColumns, box: { minX: number; minY: number; maxX: number; maxY: number }): number[] {

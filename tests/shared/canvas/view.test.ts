@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { centreOn, fitView, panBy, scaleBarLength, screenToWorld, visibleWorldBox, worldToScreen, zoomAbout } from '../../../shared/canvas/view';
+import { centreOn, fitView, panBy, scaleBarLength, screenToWorld, visibleWorldBox, worldToScreen, zoomAbout } from '../../../shared/canvas';
 
 describe('view transform', () => {
   const v = { s: 4, ox: 100, oy: 500 };

@@ -1,9 +1,9 @@
 import { describe, expect, test } from 'vitest';
 import fc from 'fast-check';
 import { importCentroid } from '../../../shared/centroid';
-import { analyseHeader } from '../../../shared/centroid/headers';
+import { analyseHeader } from '../../../shared/centroid';
 import { parseFlagCell, parseNumberCell, parseSideCell } from '../../../shared/centroid/values';
-import { EngineInputError } from '../../../shared/pipeline/errors';
+import { EngineInputError } from '../../../shared/core';
 
 function catchErr(fn: () => unknown): EngineInputError {
   try {

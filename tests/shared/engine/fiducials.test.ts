@@ -3,8 +3,8 @@ import fc from 'fast-check';
 import { Matrix, SingularValueDecomposition, determinant } from 'ml-matrix';
 import { areCollinear, fitTransform, transformToAffine } from '../../../shared/fiducials';
 import { applyAffine, type Affine } from '../../../shared/geometry';
-import { EngineInputError } from '../../../shared/pipeline/errors';
-import type { XY } from '../../../shared/pipeline/types';
+import { EngineInputError } from '../../../shared/core';
+import type { XY } from '../../../shared/core';
 
 const pt = fc.record({ x: fc.double({ min: -300, max: 300, noNaN: true }), y: fc.double({ min: -300, max: 300, noNaN: true }) });
 

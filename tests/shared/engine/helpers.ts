@@ -3,8 +3,8 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { jobSchema, type Job, type JobInput } from '../../../shared/schemas/job.schema';
 import { libraryFileSchema, type LibraryFile } from '../../../shared/schemas/library-file.schema';
-import { runJob } from '../../../shared/pipeline/run-job';
-import type { RunResult, Side } from '../../../shared/pipeline/types';
+import { runJob } from '../../../shared/pipeline';
+import type { RunResult, Side } from '../../../shared/core';
 
 export const root = join(dirname(fileURLToPath(import.meta.url)), '../../..');
 export const samplePath = (rel: string) => join(root, 'samples', rel);

@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { applyAffine, boundsOf, mapRect } from '../../../shared/geometry';
 import { boardInstances, instanceAffine, sideAffine, sideRotationTerm } from '../../../shared/panel';
 import { jobSchema } from '../../../shared/schemas/job.schema';
-import { EngineInputError } from '../../../shared/pipeline/errors';
+import { EngineInputError } from '../../../shared/core';
 
 const W = 60, H = 40;
 const A = { anchorX: 5, anchorY: 7 };

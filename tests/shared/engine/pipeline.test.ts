@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
-import { runJob } from '../../../shared/pipeline/run-job';
-import { placementRecord, placementRecords } from '../../../shared/pipeline/records';
-import { EngineInputError } from '../../../shared/pipeline/errors';
+import { runJob } from '../../../shared/pipeline';
+import { placementRecord, placementRecords } from '../../../shared/core';
+import { EngineInputError } from '../../../shared/core';
 import { libraryFileSchema } from '../../../shared/schemas/library-file.schema';
 import { bodyCorners, job, pointInConvex, polygonsOverlap, runSample } from './helpers';
 

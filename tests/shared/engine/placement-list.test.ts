@@ -8,9 +8,9 @@ import {
   writePlacementListCsv,
   writePlacementListJson,
 } from '../../../shared/placement-list';
-import { allocatePlacementColumns } from '../../../shared/pipeline/records';
-import { EngineInputError } from '../../../shared/pipeline/errors';
-import type { RunResult } from '../../../shared/pipeline/types';
+import { allocatePlacementColumns } from '../../../shared/core';
+import { EngineInputError } from '../../../shared/core';
+import type { RunResult } from '../../../shared/core';
 import { runSample } from './helpers';
 
 const GEN = '2026-03-11T09:00:00Z';

@@ -3,7 +3,7 @@ import { describe, expect, test } from 'vitest';
 import { importCentroid, importCentroidCollecting } from '../../../shared/centroid';
 import { runRevision } from '../../../shared/engine';
 import { nameKey, unmatchedFootprints } from '../../../shared/library';
-import { placementRecords } from '../../../shared/pipeline';
+import { placementRecords } from '../../../shared/core';
 import { writePlacementListCsv } from '../../../shared/placement-list';
 import { jobSchema } from '../../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../../shared/schemas/library-file.schema';

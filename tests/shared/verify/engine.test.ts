@@ -2,11 +2,11 @@
 // every pair), invariance under input order, the bound on findings, misuse errors, the schema.
 import { describe, expect, test } from 'vitest';
 import fc from 'fast-check';
-import { verify, verifyBruteForce, VerifyInputError } from '../../../shared/verify/verify';
+import { verify, verifyBruteForce, VerifyInputError } from '../../../shared/verify';
 import { makeVerifyInput, rectQuad, type PartSpec } from '../../../shared/verify/build';
 import { compareRefs } from '../../../shared/verify/natural';
 import { checkResultSchema, findingSchema, FINDING_KINDS } from '../../../shared/schemas/finding.schema';
-import type { VerifyInput } from '../../../shared/verify/types';
+import type { VerifyInput } from '../../../shared/verify';
 import runVerifyTask from '../../../shared/verify/task';
 import { mulberry32 } from '../../helpers/prng';
 import { randomPanel } from './random-panel';

@@ -1,9 +1,9 @@
 // Hand-worked cases of the findings engine, each with its arithmetic beside it (DOMAIN.md section
 // 11 and CLI.md "Check": touching is not overlapping below 1e-6 mm; boundaries are inside).
 import { describe, expect, test } from 'vitest';
-import { verify } from '../../../shared/verify/verify';
+import { verify } from '../../../shared/verify';
 import { makeVerifyInput, rectQuad, type PartSpec, type LayoutSpec } from '../../../shared/verify/build';
-import type { QuadCorners } from '../../../shared/verify/types';
+import type { QuadCorners } from '../../../shared/verify';
 
 const SQRT2 = Math.SQRT2;
 

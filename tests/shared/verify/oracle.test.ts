@@ -6,7 +6,7 @@
 import { describe, expect, test } from 'vitest';
 import fc from 'fast-check';
 import polygonClipping, { type Polygon } from 'polygon-clipping';
-import { verify } from '../../../shared/verify/verify';
+import { verify } from '../../../shared/verify';
 import { makeVerifyInput } from '../../../shared/verify/build';
 import { TOUCH_EPS, TOUCH_EPS_AREA, rectSatDepth, rectIntersectionArea } from '../../../shared/verify/geom';
 

@@ -1,7 +1,7 @@
 // Seeded random panels for the verify tests and bench: boards filled at a realistic density
 // (a jittered 2.2 mm cell grid, mostly passive chips, some ICs, a few tall parts), stepped out
 // in a grid with every other board turned 180°, board-local fiducials in three corners.
-import type { BoardOutline, VerifyFiducial, VerifyInput } from '../../../shared/verify/types';
+import type { BoardOutline, VerifyFiducial, VerifyInput } from '../../../shared/verify';
 import { mulberry32 } from '../../helpers/prng';
 
 

@@ -7,9 +7,9 @@ import { join } from 'node:path';
 import { describe, expect, test } from 'vitest';
 import { loadJob } from '../../../server/cli/common';
 import { main } from '../../../server/cli';
-import { runJob } from '../../../shared/pipeline/run-job';
-import { verifyInputFromRuns } from '../../../shared/verify/from-job';
-import { verify } from '../../../shared/verify/verify';
+import { runJob } from '../../../shared/pipeline';
+import { verifyInputFromRuns } from '../../../shared/verify';
+import { verify } from '../../../shared/verify';
 import { checkResultSchema, type Finding } from '../../../shared/schemas/finding.schema';
 
 async function checkJob(path: string, sides: ('top' | 'bottom')[] = ['top', 'bottom']) {

@@ -2,7 +2,7 @@
 // never merely that an earlier stage was done: "Assign ✓" straight after an import, with no
 // panel and nothing assigned, was a lie.
 import type { RevisionDetail } from '../../../../shared/schemas/program.schema';
-import { waivedKeys } from '../../../../shared/review/waivers';
+import { waivedKeys } from '../../../../shared/review';
 
 export const STAGES = [
   { path: 'import', label: 'Import' },

@@ -2,7 +2,7 @@
 // card, the shortcut help and the note editor.
 import { useEffect, useId, useRef, useState } from 'react';
 import { applyAffine, scaleBarLength, worldToScreen } from '../../../../shared/canvas';
-import type { RunResult } from '../../../../shared/pipeline/types';
+import type { RunResult } from '../../../../shared/core';
 import { deg, mm } from '../../../lib/format';
 import type { Scene } from '../scene';
 import { LAYERS, useCanvasState, type CanvasStore } from '../store';

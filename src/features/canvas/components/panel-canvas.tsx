@@ -15,7 +15,7 @@ import {
   zoomAbout,
   type ViewTransform,
 } from '../../../../shared/canvas';
-import type { RunResult } from '../../../../shared/pipeline/types';
+import type { RunResult } from '../../../../shared/core';
 import type { Finding } from '../../../../shared/schemas/finding.schema';
 import { drawBase, drawBodies, drawFindings, drawOverlay, drawUnderlay, type CanvasNote, type OverlayState } from '../draw';
 import { useElementSize } from '../hooks/use-element-size';

@@ -2,7 +2,7 @@
 // toggles, filters, measure, underlay and comments. Data in, callbacks out: the programs workspace
 // stores checked marks, comments and the underlay.
 import { useEffect, useMemo, useRef, useState } from 'react';
-import type { RunResult, Side } from '../../../../shared/pipeline/types';
+import type { RunResult, Side } from '../../../../shared/core';
 import type { Finding } from '../../../../shared/schemas/finding.schema';
 import { Button } from '../../../components/ui/button';
 import { buildScene } from '../scene';

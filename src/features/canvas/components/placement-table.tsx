@@ -2,7 +2,7 @@
 // a selection made on the canvas highlights and scrolls to its row.
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { useEffect, useMemo, useRef, useState } from 'react';
-import type { RunResult } from '../../../../shared/pipeline/types';
+import type { RunResult } from '../../../../shared/core';
 import { useCanvasState, type CanvasStore } from '../store';
 import { scrollWithin } from './scroll';
 

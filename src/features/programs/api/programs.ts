@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import type { Side } from '../../../../shared/pipeline/types';
-import { runResultFromJson, type RunResultJson } from '../../../../shared/pipeline/serialize';
+import type { Side } from '../../../../shared/core';
+import { runResultFromJson, type RunResultJson } from '../../../../shared/pipeline';
 import {
   commentSchema,
   programSchema,

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import { toast } from 'sonner';
-import type { RunResult, Side } from '../../../../shared/pipeline/types';
+import type { RunResult, Side } from '../../../../shared/core';
 import type { RevisionDetail, Underlay } from '../../../../shared/schemas/program.schema';
 import { ErrorPanel, ProgressBar } from '../../../components/ui/misc';
 import { PanelReview, type CanvasNote, type UnderlayState } from '../../canvas';

@@ -1,4 +1,4 @@
-import type { Side } from '../../../../../shared/pipeline/types';
+import type { Side } from '../../../../../shared/core';
 import type { RevisionSettingsInput } from '../../../../../shared/schemas/program.schema';
 import { Button } from '../../../../components/ui/button';
 import { SelectField } from '../../../../components/ui/field';

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { toast } from 'sonner';
-import { FIELDS } from '../../../../../shared/centroid/headers';
+import { FIELDS } from '../../../../../shared/centroid';
 import type { RevisionSettingsInput } from '../../../../../shared/schemas/program.schema';
 import { Button } from '../../../../components/ui/button';
 import { SelectField } from '../../../../components/ui/field';

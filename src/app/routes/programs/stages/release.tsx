@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
-import { waivedKeys } from '../../../../../shared/review/waivers';
+import { waivedKeys } from '../../../../../shared/review';
 import type { RevisionDetail } from '../../../../../shared/schemas/program.schema';
 import { Button } from '../../../../components/ui/button';
 import { ConfirmDialog } from '../../../../components/ui/confirm-dialog';

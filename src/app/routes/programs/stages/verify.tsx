@@ -1,6 +1,6 @@
 import { useMemo, useRef, useState } from 'react';
 import { toast } from 'sonner';
-import { everyBoardKey, everyBoardRefs, repeatedFindings, waiverLookup } from '../../../../../shared/review/waivers';
+import { everyBoardKey, everyBoardRefs, repeatedFindings, waiverLookup } from '../../../../../shared/review';
 import type { Finding } from '../../../../../shared/schemas/finding.schema';
 import type { WaiverDto } from '../../../../../shared/schemas/program.schema';
 import { Button } from '../../../../components/ui/button';

@@ -5,7 +5,7 @@
 // same placement; arrays are in placement order (boards by number, parts in file order), so
 // seq[i] === i + 1. Numeric per-placement fields are typed arrays; a value that is "null" in the
 // record view (unmatched package) is NaN in a Float64Array. `placementRecord(cols, i)` in
-// shared/pipeline/records.ts gives the record view with real nulls.
+// shared/core/records.ts gives the record view with real nulls.
 //
 // Frames: every x/y in this file is in the OUTPUT frame (`RunResult.frame`): the machine frame
 // when a fiducial transform was applied, else the panel frame — for the bottom side that is the

@@ -1,0 +1,2 @@
+// Review rules shared by the server and the client (waivers); see waivers.ts.
+export * from './waivers';
