@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # npm test: sets itself up (dependencies, Chromium, PostgreSQL, test databases), then runs
-#   1. the type check over client, server and shared (one check)
+#   1. the type check over client, server and shared (one check), and the import-layer rules
+#      of .dependency-cruiser.cjs (one check)
 #   2. the migration drift check (one check: entities and migrations agree)
 #   3. vitest: shared (engine) unit tests, client component tests, server integration tests
 #      against the real PostgreSQL, and the browser tests in Chromium (playwright-core)
@@ -26,6 +27,7 @@ check() { # name, command...
 }
 
 check "type check (tsc --noEmit)" npx tsc --noEmit -p tsconfig.json
+check "import layers (dependency-cruiser: no loops, shared/ framework-free, barrels only)" npx depcruise --validate .dependency-cruiser.cjs shared server src
 
 log "building the client for the browser tests"
 bash scripts/build-client.sh production || { failed=$((failed + 1)); log "FAILED: client build"; }
