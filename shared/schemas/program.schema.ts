@@ -327,6 +327,10 @@ export const reviewSummarySchema = z.object({
       nozzle: z.string().nullable(),
       vision: z.string().nullable(),
       reason: z.string(),
+      /** the part's footprint; null when no placed part has this reference */
+      footprint: z.string().nullable(),
+      /** what today's library gives the part without the override */
+      instead: z.object({ package: z.string().nullable(), nozzle: z.string().nullable(), vision: z.string().nullable() }),
     }),
   ),
   changes: revisionChangesSchema,

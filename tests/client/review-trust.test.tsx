@@ -171,7 +171,7 @@ const summary: ReviewSummaryDto = reviewSummarySchema.parse({
     { kind: 'courtyard-overlap', severity: 'warning', count: 2, waived: 0, waivers: [] },
   ],
   unusedWaivers: [],
-  overrides: [{ ref: 'C3', package: null, nozzle: 'N07', vision: null, reason: 'N05 tips wear fast on this line' }],
+  overrides: [{ ref: 'C3', package: null, nozzle: 'N07', vision: null, reason: 'N05 tips wear fast on this line', footprint: 'CAP-0402', instead: { package: 'C0402', nozzle: 'N05', vision: 'chip-small' } }],
   changes: { since: { revisionId: '7a1f0c2e-4b1d-4c3e-9f00-0000000000bb', label: 'A', releasedAt: T }, added: ['D7'], removed: ['R5'], moved: ['D2'], changed: ['Q1'], settings: ['panel'], overrides: ['C3'] },
 });
 
@@ -191,7 +191,7 @@ describe('Release: the review summary and a confirmed release (item 2)', () => {
     expect(kind.textContent).toMatch(/waived by Ellis Author \(ellis@harrowcreek\.example\)/);
     const overrides = within(s).getByRole('table', { name: 'Overrides' });
     expect(overrides.textContent).toMatch(/C3/);
-    expect(overrides.textContent).toMatch(/N07/);
+    expect(overrides.textContent).toMatch(/N07instead of N05/); // the override and what the library gives
     expect(overrides.textContent).toMatch(/N05 tips wear fast on this line/);
     expect(within(s).getByTestId('change-counts').textContent).toBe('1 added · 1 removed · 1 moved · 1 with a new footprint or value');
     expect(s.textContent).toMatch(/Compared with revision A/);

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { unmatchedFootprints } from '../../../shared/library';
+import { Assigner, unmatchedFootprints } from '../../../shared/library';
 import type { ImportResult, Side } from '../../../shared/core';
 import { runResultToJson, type RunResultJson } from '../../../shared/pipeline';
 import type { Finding } from '../../../shared/schemas/finding.schema';
@@ -494,7 +494,14 @@ export class ProgramService {
       .limit(1)
       .getOne();
     const ref = await this.userRefs(waivers.map((w) => w.userId));
-    return buildReviewSummary(r, program, waivers, (id) => ref(id)?.name ?? null, revisionChanges(r, base ?? null));
+    // what the library gives each overridden part without its override (the machine's nozzles as the run has them)
+    const machine = revisionSettingsSchema.parse(r.settings).machine;
+    const assigner = new Assigner(await this.deps.library.getLibraryFile(), machine ? machine.nozzles : null);
+    const choice = (footprint: string) => {
+      const a = assigner.assign(footprint);
+      return { package: a.pkg?.name ?? null, nozzle: a.nozzle, vision: a.vision };
+    };
+    return buildReviewSummary(r, program, waivers, (id) => ref(id)?.name ?? null, revisionChanges(r, base ?? null), choice);
   }
 
   async unwaive(revisionId: string, waiverId: string, user: ServiceUser, ip: string | null) {

@@ -71,12 +71,16 @@ export function revisionChanges(current: Pick<ProgramRevision, 'imported' | 'set
   };
 }
 
+/** What the library gives a footprint without overrides (package, nozzle, vision preset). */
+export type LibraryChoice = (footprint: string) => { package: string | null; nozzle: string | null; vision: string | null };
+
 export function buildReviewSummary(
   r: ProgramRevision,
   program: Pick<Program, 'id' | 'name'>,
   waivers: readonly RevisionWaiver[],
   userName: (id: string) => string | null,
   changes: RevisionChanges,
+  libraryChoice: LibraryChoice,
 ): ReviewSummaryDto {
   const findings = (r.findings as Finding[] | null) ?? null;
   const lookup = waiverLookup(waivers);
@@ -114,6 +118,9 @@ export function buildReviewSummary(
   });
   const byAt = (a: RevisionWaiver, b: RevisionWaiver) => a.at.getTime() - b.at.getTime();
   const imported = r.imported as unknown as ImportResult | null;
+  const footprints = new Map<string, string>();
+  for (const p of imported?.placements ?? []) if (!p.dnp && !footprints.has(p.ref)) footprints.set(p.ref, p.footprint);
+  const none = { package: null, nozzle: null, vision: null };
   return {
     revisionId: r.id,
     programId: program.id,
@@ -130,7 +137,10 @@ export function buildReviewSummary(
     unusedWaivers: findings ? waivers.filter((w) => (covers.get(w) ?? 0) === 0).sort(byAt).map(dto) : [],
     overrides: Object.entries(r.overrides as Record<string, Override>)
       .sort(([a], [b]) => natural.compare(a, b))
-      .map(([ref, o]) => ({ ref, package: o.package ?? null, nozzle: o.nozzle ?? null, vision: o.vision ?? null, reason: o.reason })),
+      .map(([ref, o]) => {
+        const footprint = footprints.get(ref) ?? null;
+        return { ref, package: o.package ?? null, nozzle: o.nozzle ?? null, vision: o.vision ?? null, reason: o.reason, footprint, instead: footprint === null ? none : libraryChoice(footprint) };
+      }),
     changes,
   };
 }

@@ -74,6 +74,17 @@ function Changes({ c }: { c: ReviewSummaryDto['changes'] }) {
   );
 }
 
+/** An overridden value with what the library gives without it; unset: the library's choice stands. */
+function Choice({ value, instead, unset }: { value: string | null; instead: string | null; unset: string }) {
+  if (value === null) return <span className="text-ink-400">{unset}{instead ? ` (${instead})` : ''}</span>;
+  return (
+    <>
+      <span className="font-medium">{value}</span>
+      <span className="block text-xs text-ink-500">instead of {instead ?? 'none'}</span>
+    </>
+  );
+}
+
 function Section({ title, children }: { title: string; children: ReactNode }) {
   return (
     <section aria-label={title} className="flex flex-col gap-2 border-t border-ink-100 pt-3">
@@ -145,10 +156,13 @@ export function ReviewSummaryView({ s }: { s: ReviewSummaryDto }) {
             <tbody>
               {s.overrides.map((o) => (
                 <tr key={o.ref} className="border-t border-ink-100 align-top">
-                  <td className="num py-1 pr-2 font-medium">{o.ref}</td>
-                  <td className="num py-1 pr-2">{o.package ?? <span className="text-ink-400">as matched</span>}</td>
-                  <td className="num py-1 pr-2">{o.nozzle ?? <span className="text-ink-400">as chosen</span>}</td>
-                  <td className="num py-1 pr-2">{o.vision ?? <span className="text-ink-400">the package’s</span>}</td>
+                  <td className="num py-1 pr-2 font-medium">
+                    {o.ref}
+                    {o.footprint === null ? <span className="block text-xs font-normal text-sev-warning">no placed part has this reference</span> : <span className="block text-xs font-normal text-ink-500">{o.footprint}</span>}
+                  </td>
+                  <td className="num py-1 pr-2"><Choice value={o.package} instead={o.instead.package} unset="as matched" /></td>
+                  <td className="num py-1 pr-2"><Choice value={o.nozzle} instead={o.instead.nozzle} unset="as chosen" /></td>
+                  <td className="num py-1 pr-2"><Choice value={o.vision} instead={o.instead.vision} unset="the package’s" /></td>
                   <td className="py-1">“{o.reason}”</td>
                 </tr>
               ))}
