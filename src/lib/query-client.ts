@@ -12,3 +12,6 @@ export function createQueryClient() {
     },
   });
 }
+
+/** The app's one query client (src/main.tsx hands it to the provider; route loaders prefetch into it). */
+export const appQueryClient = createQueryClient();
