@@ -109,7 +109,10 @@ afterEach(() => {
   document.body.innerHTML = '';
 });
 
-describe('Verify: waive on every board (item 3)', () => {
+// These pages draw the panel and type into forms: on a loaded machine that takes seconds, so each
+// describe block below allows 20 s per test.
+
+describe('Verify: waive on every board (item 3)', { timeout: 20_000 }, () => {
   it('offers "waive on every board" for a finding repeated per board and sends one decision', async () => {
     // samples/faulty/README.md: body-overlap 1:R1,1:R2 and 2:R1,2:R2 — the same pair on both boards
     expect(bodyOverlaps.map((f) => f.refs.join())).toEqual(['1:R1,1:R2', '2:R1,2:R2']);
@@ -175,7 +178,7 @@ const summary: ReviewSummaryDto = reviewSummarySchema.parse({
   changes: { since: { revisionId: '7a1f0c2e-4b1d-4c3e-9f00-0000000000bb', label: 'A', releasedAt: T }, added: ['D7'], removed: ['R5'], moved: ['D2'], changed: ['Q1'], settings: ['panel'], overrides: ['C3'] },
 });
 
-describe('Release: the review summary and a confirmed release (item 2)', () => {
+describe('Release: the review summary and a confirmed release (item 2)', { timeout: 20_000 }, () => {
   const inReview = () => detail({ state: 'in-review', findings: reviewFindings, waivers: [everyBoardWaiver], overrides: { C3: { nozzle: 'N07', reason: 'N05 tips wear fast on this line' } }, can: { edit: false, submit: false, review: true, withdraw: true, newRevision: false } });
 
   it('the reviewer sees waivers (reason, who, when), overrides with reasons and the changes since the last release', async () => {
@@ -246,11 +249,16 @@ describe('Release: the review summary and a confirmed release (item 2)', () => {
     await within(s).findByText(/First release/);
     expect(within(s).getByTestId('summary-kind-body-overlap').textContent).toMatch(/R1\/R2 are a stacked footprint by design/);
     expect(within(s).getByRole('table', { name: 'Overrides' }).textContent).toMatch(/C3/);
+    // withdrawing asks in the same kind of dialog (no browser confirm box)
+    await userEvent.click(screen.getByRole('button', { name: 'Withdraw' }));
+    const dialog = screen.getByRole('dialog', { name: 'Withdraw fault-demo revision B?' });
+    await userEvent.click(within(dialog).getByRole('button', { name: 'Cancel' }));
+    expect(screen.queryByRole('dialog')).toBeNull();
   });
 });
 
 // ---- the override form (item 11) ---------------------------------------------------------------
-describe('Assign: the override form', () => {
+describe('Assign: the override form', { timeout: 20_000 }, () => {
   it('has a Cancel, and saving an override keeps the table’s filter', async () => {
     const state = { rev: detail({ findings: null, findingsSummary: null, checkedAt: null }) };
     const puts: unknown[] = [];
@@ -289,7 +297,7 @@ describe('Assign: the override form', () => {
 });
 
 // ---- the package safeguard (item 5) ---------------------------------------------------------------
-describe('Library: a shared package edit shows where it is used and asks first (item 5)', () => {
+describe('Library: a shared package edit shows where it is used and asks first (item 5)', { timeout: 20_000 }, () => {
   const ID = '0b5d3c1e-8f3a-4f0e-9a51-2f8f4c0b1a11';
   const meta = { version: 4, updatedAt: T, updatedBy: 'lena@harrowcreek.example' };
   const pkg: PackageDto = { ...blankPackage('LED0603'), id: ID, ...meta, bodyLength: 1.6, bodyWidth: 0.8, aliases: [{ id: ID, pattern: 'LED-0603*', version: 1 }], warnings: [] };

@@ -103,6 +103,7 @@ export default function ReleaseStage() {
   const { revision: r } = useWorkspace();
   const submit = useSubmit(r.id);
   const withdraw = useWithdraw(r.id);
+  const [withdrawing, setWithdrawing] = useState(false);
   const newRev = useNewRevision(r.programId);
   const navigate = useNavigate();
   const openErrors = openErrorFindings(r).length;
@@ -131,7 +132,7 @@ export default function ReleaseStage() {
           {missing.length ? <p className="text-sm text-ink-600">Before submitting: {missing.join('; ')}.</p> : <p className="text-sm text-ink-600">Another engineer reviews the panel on the canvas and releases it. Engineers are told by e-mail. The reviewer sees the summary below.</p>}
           <div className="flex gap-2">
             <Button disabled={missing.length > 0 || submit.isPending} onClick={() => submit.mutate(undefined, { onSuccess: () => toast.success('Submitted for review.'), onError: (e) => toast.error(e.message) })}>Submit for review</Button>
-            <Button variant="ghost" onClick={() => confirm(`Withdraw revision ${r.label}? It cannot be reopened.`) && withdraw.mutate(undefined, { onError: (e) => toast.error(e.message) })}>Withdraw</Button>
+            <Button variant="ghost" aria-haspopup="dialog" onClick={() => setWithdrawing(true)}>Withdraw</Button>
           </div>
         </section>
       )}
@@ -139,7 +140,7 @@ export default function ReleaseStage() {
       {r.state === 'in-review' && !r.can.review && (
         <section className="rounded border border-ink-200 bg-white p-4 text-sm">
           <p>Submitted {dateTime(r.submittedAt)}. Waiting for review by another engineer: no one who changed this revision (created, imported, set up, overrode, waived, checked or submitted it) may approve it.</p>
-          {r.can.withdraw && <Button variant="ghost" className="mt-2" onClick={() => confirm(`Withdraw revision ${r.label}?`) && withdraw.mutate(undefined, { onError: (e) => toast.error(e.message) })}>Withdraw</Button>}
+          {r.can.withdraw && <Button variant="ghost" className="mt-2" aria-haspopup="dialog" onClick={() => setWithdrawing(true)}>Withdraw</Button>}
         </section>
       )}
       {r.state !== 'withdrawn' && r.imported && <ReviewSummaryPanel revisionId={r.id} title={r.state === 'draft' ? 'What you submit' : r.state === 'in-review' ? 'What is approved' : 'What was released'} />}
@@ -174,6 +175,17 @@ export default function ReleaseStage() {
         </section>
       )}
       <Comments />
+      <ConfirmDialog
+        open={withdrawing}
+        title={`Withdraw ${r.program.name} revision ${r.label}?`}
+        confirmLabel={`Withdraw ${r.label}`}
+        tone="danger"
+        busy={withdraw.isPending}
+        onConfirm={() => withdraw.mutate(undefined, { onSettled: () => setWithdrawing(false), onError: (e) => toast.error(e.message) })}
+        onCancel={() => setWithdrawing(false)}
+      >
+        <p>A withdrawn revision cannot be reopened or released; its files and notes stay readable.</p>
+      </ConfirmDialog>
     </div>
   );
 }
