@@ -21,6 +21,7 @@ import AssignStage from '../../src/app/routes/programs/stages/assign';
 import ReleaseStage from '../../src/app/routes/programs/stages/release';
 import VerifyStage from '../../src/app/routes/programs/stages/verify';
 import WorkspaceRoute from '../../src/app/routes/programs/workspace';
+import { waivedWhat } from '../../src/features/programs/lib/finding-labels';
 import { mockFetch, renderRoutes } from '../helpers/render';
 
 // ---- the faulty sample, run by the engine as the server would ---------------------------------
@@ -141,6 +142,12 @@ describe('Verify: waive on every board (item 3)', { timeout: 20_000 }, () => {
     await userEvent.click(within(form).getByRole('button', { name: 'Waive on 2 boards' }));
     await waitFor(() => expect(posts).toHaveLength(1));
     expect(posts[0]).toEqual({ key: bodyOverlaps[0].key, reason: 'R1/R2 are a stacked footprint by design', scope: 'every-board' });
+  });
+
+  it('names what a waiver covers for people', () => {
+    expect(waivedWhat(['1:R1', '1:R2'])).toBe('1:R1, 1:R2');
+    expect(waivedWhat(['boards:1,2'])).toBe('boards 1, 2');
+    expect(waivedWhat(['panel'])).toBe('the panel');
   });
 
   it('shows an every-board waiver once, with the findings it covers, on each board’s finding', async () => {

@@ -165,6 +165,18 @@ describe('defect 3: four-eyes covers everyone who changed the revision', () => {
     expect([...contributors].sort()).toEqual([a.user.email, b.user.email].sort());
   });
 
+  it('running the checks is not a change: an engineer who only ran them may still release', async () => {
+    const a = await signedInAgent(ctx, ['engineer']);
+    const b = await signedInAgent(ctx, ['engineer']);
+    const revId = await createProgram(a, 'led-strip');
+    expect((await upload(a, revId, sampleFile('led-strip/led-strip.csv'), 'led-strip.csv', await version(a, revId))).status).toBe(200);
+    await a.a.put(`/api/revisions/${revId}/settings`).set('X-CSRF-Token', a.token).send({ settings: sampleSettings('led-strip/job.json'), version: await version(a, revId) }).expect(200);
+    await b.a.post(`/api/revisions/${revId}/checks`).set('X-CSRF-Token', b.token).expect(200);
+    await a.a.post(`/api/revisions/${revId}/submit`).set('X-CSRF-Token', a.token).expect(200);
+    const byB = await post(b, `/revisions/${revId}/approve`, { comment: 'Looked at every finding.' });
+    expect(byB.status, JSON.stringify(byB.body)).toBe(200);
+  });
+
   it('a waiver alone makes its giver a contributor', async () => {
     const a = await signedInAgent(ctx, ['engineer']);
     const w = await signedInAgent(ctx, ['engineer']);

@@ -43,13 +43,13 @@ export class Reliability1796201900000 implements MigrationInterface {
       `INSERT INTO "revision_contributors" ("revision_id", "user_id", "user_email", "actions", "first_at", "last_at")
        SELECT r."id", e."actor_id", max(e."actor_email"),
               array_agg(DISTINCT CASE e."action" WHEN 'revision.import' THEN 'import' WHEN 'revision.settings' THEN 'settings' WHEN 'revision.overrides' THEN 'overrides'
-                                                 WHEN 'finding.waive' THEN 'waiver' WHEN 'finding.unwaive' THEN 'waiver' WHEN 'revision.submit' THEN 'submit' ELSE 'check' END),
+                                                 WHEN 'finding.waive' THEN 'waiver' WHEN 'finding.unwaive' THEN 'waiver' ELSE 'submit' END),
               min(e."at"), max(e."at")
          FROM "audit_events" e
          JOIN "programs" p ON e."target" LIKE p."name" || ' %'
          JOIN "program_revisions" r ON r."program_id" = p."id" AND e."target" = p."name" || ' ' || r."label"
         WHERE e."actor_id" IS NOT NULL AND e."actor_email" IS NOT NULL AND e."at" >= r."created_at"
-          AND e."action" IN ('revision.import', 'revision.settings', 'revision.overrides', 'finding.waive', 'finding.unwaive', 'revision.submit', 'revision.check')
+          AND e."action" IN ('revision.import', 'revision.settings', 'revision.overrides', 'finding.waive', 'finding.unwaive', 'revision.submit')
         GROUP BY r."id", e."actor_id"
        ON CONFLICT ("revision_id", "user_id") DO UPDATE
           SET "actions" = (SELECT array_agg(DISTINCT a ORDER BY a) FROM unnest("revision_contributors"."actions" || EXCLUDED."actions") a),

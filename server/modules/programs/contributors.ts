@@ -2,8 +2,11 @@ import type { EntityManager } from 'typeorm';
 import { RevisionContributor } from '../../db/entities/revision-contributor.entity';
 import { ForbiddenError } from '../../lib/errors';
 
-/** What a person did to a revision; each is recorded once per person. */
-export type Contribution = 'create' | 'import' | 'settings' | 'overrides' | 'waiver' | 'submit' | 'check';
+/**
+ * What a person did to a revision; each is recorded once per person. Running the checks is not a
+ * change (approval runs them again), nor are review notes or the canvas underlay.
+ */
+export type Contribution = 'create' | 'import' | 'settings' | 'overrides' | 'waiver' | 'submit';
 
 const DONE: Record<Contribution, string> = {
   create: 'created it',
@@ -12,7 +15,6 @@ const DONE: Record<Contribution, string> = {
   overrides: 'overrode parts',
   waiver: 'waived findings',
   submit: 'submitted it',
-  check: 'ran its checks',
 };
 
 /**

@@ -429,7 +429,6 @@ export class ProgramService {
       r.findingsSummary = result.summary as never;
       r.checkedAt = new Date();
       await m.getRepository(ProgramRevision).save(r);
-      await recordContribution(m, r.id, user, 'check');
       await this.deps.audit.record(user, 'revision.check', await this.label(r, m), { errors: result.summary.errors, warnings: result.summary.warnings }, ip, m);
     });
   }

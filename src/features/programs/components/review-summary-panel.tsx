@@ -6,7 +6,7 @@ import type { ReviewSummaryDto, ReviewWaiver } from '../../../../shared/schemas/
 import { Badge, ErrorPanel, ProgressBar } from '../../../components/ui/misc';
 import { dateTime } from '../../../lib/format';
 import { useReviewSummary } from '../api/review-summary';
-import { findingKindLabel } from '../lib/finding-labels';
+import { findingKindLabel, waivedWhat } from '../lib/finding-labels';
 
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
 
@@ -20,7 +20,7 @@ function WaiverLine({ w }: { w: ReviewWaiver }) {
           </>
         ) : (
           <>
-            <span className="num font-medium text-ink-800">{w.refs.length ? w.refs.join(', ') : w.findingKey.split('|').slice(1).join(', ') || 'panel'}</span>
+            <span className="num font-medium text-ink-800">{waivedWhat(w.refs)}</span>
             {w.covers === 0 && <span className="ml-1 text-ink-500">(not found by the last check)</span>}
           </>
         )}

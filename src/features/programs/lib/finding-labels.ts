@@ -14,3 +14,8 @@ export const FINDING_KIND_LABELS: Record<string, string> = {
 };
 
 export const findingKindLabel = (kind: string) => FINDING_KIND_LABELS[kind] ?? kind;
+
+/** What a waiver's key names, for people: "1:R1, 1:R2", "boards 1, 2" or "the panel". */
+export function waivedWhat(refs: readonly string[]): string {
+  return refs.map((r) => (r.startsWith('boards:') ? `boards ${r.slice('boards:'.length).split(',').join(', ')}` : r === 'panel' ? 'the panel' : r)).join(', ');
+}

@@ -139,7 +139,7 @@ export default function ReleaseStage() {
 
       {r.state === 'in-review' && !r.can.review && (
         <section className="rounded border border-ink-200 bg-white p-4 text-sm">
-          <p>Submitted {dateTime(r.submittedAt)}. Waiting for review by another engineer: no one who changed this revision (created, imported, set up, overrode, waived, checked or submitted it) may approve it.</p>
+          <p>Submitted {dateTime(r.submittedAt)}. Waiting for review by another engineer: no one who changed this revision (created, imported, set up, overrode, waived or submitted it) may approve it.</p>
           {r.can.withdraw && <Button variant="ghost" className="mt-2" aria-haspopup="dialog" onClick={() => setWithdrawing(true)}>Withdraw</Button>}
         </section>
       )}

@@ -8,6 +8,7 @@ import { TextField } from '../../../../components/ui/field';
 import { Badge, EmptyState, ProgressBar } from '../../../../components/ui/misc';
 import { useRunChecks, useUnwaive, useWaive } from '../../../../features/programs/api/programs';
 import { RevisionCanvas } from '../../../../features/programs/components/revision-canvas';
+import { waivedWhat } from '../../../../features/programs/lib/finding-labels';
 import { dateTime, mm } from '../../../../lib/format';
 import { useWorkspace } from '../workspace';
 
@@ -158,7 +159,7 @@ export default function VerifyStage() {
             {r.waivers.map((w) => (
               <li key={w.id} className="flex flex-wrap items-baseline gap-2">
                 <span className="font-medium">{KIND_LABELS[w.kind] ?? w.kind}</span>
-                <span className="num text-xs">{(w.scope === 'every-board' ? everyBoardRefs(w.findingKey) : w.findingKey.split('|').slice(1)).join(', ') || 'panel'}</span>
+                <span className="num text-xs">{waivedWhat(w.scope === 'every-board' ? everyBoardRefs(w.findingKey) : w.findingKey.split('|').slice(1))}</span>
                 <WaiverNote w={w} canEdit={r.can.edit} onRemove={() => unwaive.mutate(w.id, { onError: (e) => toast.error(e.message) })} />
               </li>
             ))}
