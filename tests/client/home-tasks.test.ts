@@ -45,12 +45,13 @@ describe('home tasks', () => {
     const t = homeTasks({ id: 'o', roles: ['operator'] }, {
       runFiles: [
         { programName: 'strip', label: 'A', state: 'released', releasedAt: '2026-01-01T00:00:00Z' },
-        { programName: 'weather', label: 'B', state: 'released', releasedAt: '2026-02-01T00:00:00Z' },
+        { revisionId: 'wb', programName: 'weather', label: 'B', state: 'released', releasedAt: '2026-02-01T00:00:00Z' },
         { programName: 'weather', label: 'A', state: 'superseded', releasedAt: '2026-03-01T00:00:00Z' },
       ] as never,
     });
     expect(t).toHaveLength(1);
     expect(t[0].title).toBe('Set up weather rev B');
+    expect(t[0].to).toBe('/run-files/wb/setup-sheet');
   });
 
   it('an admin: users without a role, or never signed in', () => {

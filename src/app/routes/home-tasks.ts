@@ -64,7 +64,7 @@ function operatorTasks(runFiles: RunFileDto[]): HomeTask[] {
   const current = runFiles.filter((f) => f.state === 'released');
   if (current.length === 0) return [{ role: 'operator', title: 'No released programs yet', detail: 'run files appear here once a program is released', to: '/run-files', action: 'Run files' }];
   const latest = [...current].sort((a, b) => (b.releasedAt ?? '').localeCompare(a.releasedAt ?? ''))[0];
-  return [{ role: 'operator', title: `Set up ${latest.programName} rev ${latest.label}`, detail: `the latest release (${plural(current.length, 'program')} released in all): its run files and set-up sheet`, to: '/run-files', action: 'Run files' }];
+  return [{ role: 'operator', title: `Set up ${latest.programName} rev ${latest.label}`, detail: `the latest release (${plural(current.length, 'program')} released in all); its run files are on Run files`, to: `/run-files/${latest.revisionId}/setup-sheet`, action: 'Set-up sheet' }];
 }
 
 function adminTasks(users: UserDto[]): HomeTask[] {

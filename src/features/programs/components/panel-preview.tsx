@@ -3,6 +3,7 @@ import { applyAffine } from '../../../../shared/geometry';
 import { boardInstances, instanceAffine } from '../../../../shared/panel';
 import { panelSchema } from '../../../../shared/schemas/job.schema';
 import type { RevisionSettingsInput } from '../../../../shared/schemas/program.schema';
+import { fixed } from '../../../lib/format';
 
 interface Props {
   settings: RevisionSettingsInput;
@@ -62,7 +63,7 @@ export function PanelPreview({ settings, reach, height = 360, labelFiducials: la
   const font = Math.max(panel.width, panel.height) / 40;
   return (
     <figure className="rounded border border-ink-200 bg-ink-950 p-2">
-      <svg role="img" aria-label={`Panel ${panel.width.toFixed(3)} × ${panel.height.toFixed(3)} mm with ${boards.length} boards${fids.length ? ` and ${fids.length} fiducial${fids.length === 1 ? '' : 's'} (${fids.map((f) => f.name).join(', ')})` : ''}`} viewBox={`${-pad} ${-(showReach ? maxY : panel.height) - pad} ${vbW} ${vbH}`} style={{ width: '100%', height }} preserveAspectRatio="xMidYMid meet">
+      <svg role="img" aria-label={`Panel ${fixed(panel.width)} × ${fixed(panel.height)} mm with ${boards.length} boards${fids.length ? ` and ${fids.length} fiducial${fids.length === 1 ? '' : 's'} (${fids.map((f) => f.name).join(', ')})` : ''}`} viewBox={`${-pad} ${-(showReach ? maxY : panel.height) - pad} ${vbW} ${vbH}`} style={{ width: '100%', height }} preserveAspectRatio="xMidYMid meet">
         {showReach && reach && <rect x={0} y={Y(reach.y)} width={reach.x} height={reach.y} fill="none" stroke="#3f88c5" strokeDasharray={`${font / 2} ${font / 3}`} strokeWidth={font / 12} />}
         <rect x={0} y={Y(panel.height)} width={panel.width} height={panel.height} fill="#1d5c3d" fillOpacity={0.35} stroke="#a9b6c0" strokeWidth={font / 10} />
         {boards.map((b) => (
@@ -85,7 +86,7 @@ export function PanelPreview({ settings, reach, height = 360, labelFiducials: la
             <circle cx={f.x} cy={Y(f.y)} r={f.r} fill="none" stroke={f.side === 'top' ? '#e7a46c' : '#cdd5db'} strokeWidth={font / 14} strokeDasharray={f.side === 'bottom' ? `${font / 5} ${font / 6}` : undefined} />
             <circle cx={f.x} cy={Y(f.y)} r={Math.min(f.r / 2, 0.5)} fill={f.side === 'top' ? '#e7a46c' : '#cdd5db'} />
             {labelFids && (
-              <text x={f.x + f.r + font * 0.3} y={Y(f.y)} fontSize={font * 0.9} fill={f.side === 'top' ? '#e7a46c' : '#cdd5db'} dominantBaseline="middle" fontFamily="Roboto Mono, monospace">
+              <text x={f.x + f.r + font * 0.3} y={Y(f.y)} fontSize={font * 1.5} fill={f.side === 'top' ? '#e7a46c' : '#cdd5db'} dominantBaseline="middle" fontFamily="Roboto Mono, monospace">
                 {f.name}
               </text>
             )}
@@ -94,8 +95,8 @@ export function PanelPreview({ settings, reach, height = 360, labelFiducials: la
       </svg>
       <figcaption className="mt-1 flex flex-wrap gap-4 px-1 text-2xs text-ink-300">
         <span>Top view, Y up · copper corner = each board's own origin</span>
-        <span className="num">panel {panel.width.toFixed(3)} × {panel.height.toFixed(3)} mm</span>
-        {reach && <span className="num text-[#3f88c5]">machine reach {reach.x.toFixed(3)} × {reach.y.toFixed(3)} mm (dashed)</span>}
+        <span className="num">panel {fixed(panel.width)} × {fixed(panel.height)} mm</span>
+        {reach && <span className="num text-[#3f88c5]">machine reach {fixed(reach.x)} × {fixed(reach.y)} mm (dashed)</span>}
         <span>○ fiducial clear area (top solid, bottom dashed)</span>
       </figcaption>
     </figure>
