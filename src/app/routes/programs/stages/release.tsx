@@ -143,7 +143,7 @@ export default function ReleaseStage() {
           {r.can.withdraw && <Button variant="ghost" className="mt-2" aria-haspopup="dialog" onClick={() => setWithdrawing(true)}>Withdraw</Button>}
         </section>
       )}
-      {r.state !== 'withdrawn' && r.imported && <ReviewSummaryPanel revisionId={r.id} title={r.state === 'draft' ? 'What you submit' : r.state === 'in-review' ? 'What is approved' : 'What was released'} />}
+      {(r.state === 'draft' || r.state === 'in-review') && r.imported && <ReviewSummaryPanel revisionId={r.id} title={r.state === 'draft' ? 'What you submit' : 'What is approved'} />}
       {r.state === 'in-review' && r.can.review && <Decision />}
 
       {(r.state === 'released' || r.state === 'superseded') && (
@@ -167,6 +167,7 @@ export default function ReleaseStage() {
           )}
         </section>
       )}
+      {(r.state === 'released' || r.state === 'superseded') && r.imported && <ReviewSummaryPanel revisionId={r.id} title="What was released" />}
 
       {r.state !== 'withdrawn' && (r.state === 'in-review' || r.state === 'released' || r.state === 'superseded') && (
         <section aria-label="Canvas" className="flex flex-col gap-2">
