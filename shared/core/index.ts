@@ -4,3 +4,4 @@ export { EngineInputError, type EngineInputErrorFields } from './errors';
 export { parseWith, issuePath } from './parse-input';
 export { placementRecord, placementRecords, allocatePlacementColumns, defineLazyColumns, filledArray, type RepeatedColumn } from './records';
 export type * from './types';
+export { fixed, fixed3, lengthText, angleText } from './format';

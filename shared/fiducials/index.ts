@@ -10,7 +10,7 @@ import {
   signedDeg,
   type Affine,
 } from '../geometry';
-import { EngineInputError } from '../core';
+import { angleText, EngineInputError, fixed, lengthText } from '../core';
 import type { EngineWarning, Residual, TransformChoice, TransformModel, TransformResult, XY } from '../core';
 
 export interface AlignLimits {
@@ -195,7 +195,7 @@ export function describeTransform(
     if (distance > limits.residual) {
       warnings.push({
         line: null,
-        message: `${ctx}: fiducial ${names[i]} residual ${distance.toFixed(4)} mm exceeds ${limits.residual} mm (mis-measured or mis-named?)`,
+        message: `${ctx}: fiducial ${names[i]} residual ${lengthText(distance, 4)} exceeds ${lengthText(limits.residual, 4)} (mis-measured or mis-named?)`,
         code: 'transform-residual',
       });
     }
@@ -207,12 +207,12 @@ export function describeTransform(
   const scalePpm = (scale - 1) * 1e6;
   const worstPpm = model === 'affine' ? Math.max(Math.abs(sx - 1), Math.abs(sy - 1)) * 1e6 : Math.abs(scalePpm);
   if (worstPpm > limits.scalePpm) {
-    warnings.push({ line: null, message: `${ctx}: scale deviates by ${worstPpm.toFixed(0)} ppm, more than ${limits.scalePpm} ppm`, code: 'transform-scale' });
+    warnings.push({ line: null, message: `${ctx}: scale deviates by ${fixed(worstPpm, 0)} ppm, more than ${limits.scalePpm} ppm`, code: 'transform-scale' });
   }
   const rotationDeg = affineRotationDeg(T);
   const signed = signedDeg(rotationDeg);
   if (Math.abs(signed) > limits.rotationDeg) {
-    warnings.push({ line: null, message: `${ctx}: rotation ${signed.toFixed(3)}° exceeds ${limits.rotationDeg}°`, code: 'transform-rotation' });
+    warnings.push({ line: null, message: `${ctx}: rotation ${angleText(signed)} exceeds ${limits.rotationDeg}°`, code: 'transform-rotation' });
   }
   let shearDeg = 0;
   if (model === 'affine') {

@@ -1,17 +1,8 @@
-// Fast number formatting and CSV quoting for the neutral list.
+// Number formatting and CSV quoting for the neutral list (3 decimals: shared/core/format.ts).
+import { fixed3 } from '../core';
 
-/** `v` with exactly 3 decimals, like toFixed(3) (half away from zero), never "-0.000". */
-export function fmt3(v: number): string {
-  const neg = v < 0;
-  const a = neg ? -v : v;
-  if (!(a < 1e12)) return Number.isFinite(v) ? v.toFixed(3) : String(v);
-  const q = Math.round(a * 1000);
-  if (q === 0) return '0.000';
-  const i = Math.floor(q / 1000);
-  const f = q - i * 1000;
-  const fs = f < 10 ? '00' + f : f < 100 ? '0' + f : '' + f;
-  return (neg ? '-' : '') + i + '.' + fs;
-}
+/** `v` with exactly 3 decimals, half away from zero, never "-0.000" (the engine's one formatter). */
+export const fmt3 = fixed3;
 
 /** A rotation in [0, 360) with 3 decimals; a value that rounds to 360.000 is written 0.000. */
 export function fmtRot3(v: number): string {

@@ -2,6 +2,7 @@
 // presets, machine profiles, proposals, the unmatched-footprints queue and revisions. zod 4.
 // Shared by the server (validate) and the client (forms, response parsing).
 import { z } from 'zod';
+import { lengthText } from '../core';
 
 export const PACKAGE_FAMILIES = ['chip', 'MELF', 'SOD', 'SOT', 'SOIC', 'SSOP/TSSOP', 'QFN/DFN', 'QFP', 'BGA', 'electrolytic', 'crystal', 'connector', 'other'] as const;
 export type PackageFamily = (typeof PACKAGE_FAMILIES)[number];
@@ -115,7 +116,7 @@ export function packageWarnings(
   p.nozzles.forEach((n, i) => {
     const nz = nozzles.find((x) => x.name === n);
     if (nz && Number.isFinite(side) && nz.tipOuter > side + EPS) {
-      out.push({ path: `nozzles.${i}`, message: `Nozzle ${n}'s tip (${nz.tipOuter.toFixed(3)} mm) is wider than the body's smaller side (${side.toFixed(3)} mm): it may not seal on the part` });
+      out.push({ path: `nozzles.${i}`, message: `Nozzle ${n}'s tip (${lengthText(nz.tipOuter)}) is wider than the body's smaller side (${lengthText(side)}): it may not seal on the part` });
     }
   });
   return out;

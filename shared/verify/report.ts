@@ -36,25 +36,12 @@ import {
 } from './sink';
 import { SIDE_NAMES, type VerifyInput, type VerifyResult } from './types';
 import type { Prepared, PreparedOutlines } from './prepare';
+import { fixed3 } from '../core';
 import { RAW, sortKeys, sortOrder } from './report-order';
 
 
-/** ".00" … ".99" */
-const CENTS: string[] = Array.from({ length: 100 }, (_, i) => (i < 10 ? '.0' : '.') + i);
-
-/** Millimetres for a message: two decimals, more for tiny values ("0.21", "0.0042"). */
-export function fmtMm(v: number): string {
-  const a = v < 0 ? -v : v;
-  if (a === 0) return '0';
-  if (a >= 0.01 && a < 2e7) {
-    // two decimals by small-integer arithmetic (as toFixed(2), without its cost in a long report)
-    const n = Math.round(a * 100);
-    const ip = (n / 100) | 0;
-    const fr = (n - ip * 100) | 0;
-    return v < 0 ? '-' + ip + CENTS[fr] : ip + CENTS[fr];
-  }
-  return Number(v.toPrecision(2)).toString();
-}
+/** Millimetres in a message: 3 decimals, never "-0.000" (the engine's one formatter). */
+export const fmtMm = fixed3;
 
 const NO_BOARDS: number[] = [];
 
@@ -306,7 +293,7 @@ function draft(ctx: Ctx, k: number): Draft {
       const r = input.reach!;
       return singleDraft(
         input, kind, severity, a,
-        `${partName(input, a)} at (${cx[a].toFixed(2)}, ${cy[a].toFixed(2)}) is ${fmtMm(depth)} mm outside the machine reach (${fmtMm(r.x)} × ${fmtMm(r.y)} mm)`,
+        `${partName(input, a)} at (${fmtMm(cx[a])}, ${fmtMm(cy[a])}) is ${fmtMm(depth)} mm outside the machine reach (${fmtMm(r.x)} × ${fmtMm(r.y)} mm)`,
         { type: 'point', x: cx[a], y: cy[a] },
         depth, null,
       );

@@ -1,11 +1,7 @@
-/** Millimetres, 3 decimals, with the unit. */
-export function mm(v: number | null | undefined, decimals = 3): string {
-  return v == null || !Number.isFinite(v) ? '—' : `${v.toFixed(decimals)} mm`;
-}
-
-export function deg(v: number | null | undefined, decimals = 3): string {
-  return v == null || !Number.isFinite(v) ? '—' : `${v.toFixed(decimals)}°`;
-}
+// Lengths and angles: the engine's one formatter (shared/core/format.ts), 3 decimals unless asked,
+// never "-0.000". `mm` and `deg` add the unit; `fixed` gives the number alone (tables with the unit
+// in the header).
+export { fixed, lengthText as mm, angleText as deg } from '../../shared/core';
 
 const dateFmt = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 export function dateTime(iso: string | null | undefined): string {

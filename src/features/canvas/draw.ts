@@ -7,6 +7,7 @@ import type { Finding } from '../../../shared/schemas/finding.schema';
 import { CANVAS_COLORS as C, SEVERITY_COLORS } from './palette';
 import type { Scene } from './scene';
 import type { LayerVisibility, MeasurePoint } from './store';
+import { fixed } from '../../lib/format';
 
 export interface Viewport {
   view: ViewTransform;
@@ -455,7 +456,7 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, scene: Scene, vp: Vie
       ctx.textBaseline = 'bottom';
       ctx.lineWidth = 4;
       ctx.strokeStyle = C.labelHalo;
-      const t = `${d.toFixed(3)} mm`;
+      const t = `${fixed(d)} mm`;
       ctx.strokeText(t, mx, my - 6);
       ctx.fillText(t, mx, my - 6);
     }

@@ -104,7 +104,7 @@ describe('body and courtyard overlap', () => {
       ['2:C1', '10:C1'],
     ]);
     // bodies 2 long, centres 1.5 apart → overlap 2 − 1.5 = 0.5
-    expect(res.findings[0].message).toBe('R2 on board 1 overlaps R10 on board 1 by 0.50 mm');
+    expect(res.findings[0].message).toBe('R2 on board 1 overlaps R10 on board 1 by 0.500 mm');
     expect(res.findings[1].boards).toEqual([2, 10]);
     expect(res.findings[0].key).toBe('body-overlap|1:R2|1:R10');
   });

@@ -17,7 +17,7 @@ describe('nozzle-size: a tip wider than the body', () => {
     const f = r.findings[0];
     expect(f).toMatchObject({ kind: 'nozzle-size', severity: 'warning', refs: ['1:R1'], geometry: { type: 'point', x: 10, y: 10 } });
     expect(f.depth).toBeCloseTo(3.5, 12);
-    expect(f.message).toBe("R1 on board 1: the tip of nozzle N40 (⌀ 4.00 mm) is wider than the body's smaller side (0.50 mm)");
+    expect(f.message).toBe("R1 on board 1: the tip of nozzle N40 (⌀ 4.000 mm) is wider than the body's smaller side (0.500 mm)");
     expect(r.summary).toMatchObject({ errors: 0, warnings: 1 });
   });
   test('a tip equal to the smaller side, a smaller tip, an unknown tip: no finding', () => {

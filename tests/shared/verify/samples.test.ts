@@ -85,7 +85,7 @@ describe('samples/faulty', () => {
     const by = (key: string) => result.findings.find((f) => f.key === key)!;
     // R1/R2: 1.6 − 1.2 = 0.4 mm
     expect(by('body-overlap|1:R1|1:R2').depth!).toBeCloseTo(0.4, 9);
-    expect(by('body-overlap|1:R1|1:R2').message).toBe('R1 on board 1 overlaps R2 on board 1 by 0.40 mm');
+    expect(by('body-overlap|1:R1|1:R2').message).toBe('R1 on board 1 overlaps R2 on board 1 by 0.400 mm');
     // C1/C2: bodies 0.2 apart, courtyards 0.5 → 0.3
     expect(by('courtyard-overlap|1:C1|1:C2')).toMatchObject({ severity: 'warning' });
     expect(by('courtyard-overlap|1:C1|1:C2').depth!).toBeCloseTo(0.3, 9);

@@ -36,6 +36,7 @@ import { useLibraryAccess } from '../../../features/library/hooks/use-library-ac
 import { ApiError } from '../../../lib/api-client';
 import { Link } from 'react-router-dom';
 import { Loaded, Mm } from './shared';
+import { fixed } from '../../../lib/format';
 
 // ---------------------------------------------------------------- aliases
 
@@ -296,7 +297,7 @@ export function MachinesRoute() {
   const [editing, setEditing] = useState<MachineDto | 'new' | null>(null);
   const columns: ColumnDef<MachineDto, any>[] = [
     { accessorKey: 'name', header: 'Name', cell: ({ getValue }) => <span className="font-medium">{getValue() as string}</span> },
-    { id: 'reach', header: 'Reach X × Y', accessorFn: (m) => m.reachX * m.reachY, cell: ({ row }) => <span className="num">{row.original.reachX.toFixed(3)} × {row.original.reachY.toFixed(3)} mm</span> },
+    { id: 'reach', header: 'Reach X × Y', accessorFn: (m) => m.reachX * m.reachY, cell: ({ row }) => <span className="num">{fixed(row.original.reachX)} × {fixed(row.original.reachY)} mm</span> },
     { accessorKey: 'maxPartHeight', header: 'Max part height', cell: ({ getValue }) => <Mm v={getValue() as number} /> },
     { id: 'nozzles', header: 'Nozzles installed', accessorFn: (m) => m.nozzles.join(' '), cell: ({ getValue }) => <span className="num text-xs">{getValue() as string}</span> },
     { accessorKey: 'notes', header: 'Notes', cell: ({ getValue }) => <span className="text-xs text-ink-600">{getValue() as string}</span> },

@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import type { PackageDto } from '../../../../shared/schemas/library.schema';
 import { ErrorPanel, ProgressBar } from '../../../components/ui/misc';
+import { fixed } from '../../../lib/format';
 
 /** Loading / error / content for a query. */
 export function Loaded<T>({ q, label, children }: { q: { isPending: boolean; isError: boolean; error: unknown; data: T | undefined }; label: string; children: (data: T) => ReactNode }) {
@@ -9,10 +10,10 @@ export function Loaded<T>({ q, label, children }: { q: { isPending: boolean; isE
   return <>{children(q.data as T)}</>;
 }
 
-export const mm3 = (v: number | null | undefined) => (v == null ? '—' : v.toFixed(3));
+export const mm3 = (v: number | null | undefined) => (v == null ? '—' : fixed(v));
 
 export function Mm({ v }: { v: number | null | undefined }) {
-  return <span className="num">{v == null ? '—' : `${v.toFixed(3)} mm`}</span>;
+  return <span className="num">{v == null ? '—' : `${fixed(v)} mm`}</span>;
 }
 
 /** A package as the form's input (everything but the server's bookkeeping). */

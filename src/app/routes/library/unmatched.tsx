@@ -11,7 +11,7 @@ import { usePackages } from '../../../features/library/api/packages';
 import { useCreateProposal } from '../../../features/library/api/proposals';
 import { useAddAliasFromUnmatched, useUnmatched } from '../../../features/library/api/unmatched';
 import { useLibraryAccess } from '../../../features/library/hooks/use-library-access';
-import { dateTime } from '../../../lib/format';
+import { dateTime, fixed } from '../../../lib/format';
 import { Loaded } from './shared';
 
 function AddAlias({ u, onDone, propose }: { u: UnmatchedDto; onDone: () => void; propose: boolean }) {
@@ -40,7 +40,7 @@ function AddAlias({ u, onDone, propose }: { u: UnmatchedDto; onDone: () => void;
       <TextField label="Alias" value={pattern} onChange={(e) => setPattern(e.target.value)} error={error ?? undefined} hint="The footprint itself, or a pattern that matches it." />
       <SelectField label="Existing package" value={packageId} onChange={(e) => setPackageId(e.target.value)}>
         <option value="">Choose…</option>
-        {(pkgs.data ?? []).map((p) => <option key={p.id} value={p.id}>{p.name} ({p.bodyLength.toFixed(3)} × {p.bodyWidth.toFixed(3)} mm)</option>)}
+        {(pkgs.data ?? []).map((p) => <option key={p.id} value={p.id}>{p.name} ({fixed(p.bodyLength)} × {fixed(p.bodyWidth)} mm)</option>)}
       </SelectField>
       <Button type="submit" disabled={!packageId || add.isPending || proposal.isPending}>{propose ? 'Propose alias' : 'Add alias'}</Button>
       <Button variant="ghost" onClick={onDone}>Cancel</Button>

@@ -3,7 +3,7 @@
 import { useEffect, useId, useRef, useState } from 'react';
 import { applyAffine, scaleBarLength, worldToScreen } from '../../../../shared/canvas';
 import type { RunResult } from '../../../../shared/core';
-import { deg, mm } from '../../../lib/format';
+import { deg, fixed, mm } from '../../../lib/format';
 import type { Scene } from '../scene';
 import { LAYERS, useCanvasState, type CanvasStore } from '../store';
 
@@ -48,7 +48,7 @@ export function CursorReadout({ store, scene }: { store: CanvasStore; scene: Sce
   return (
     <div className="flex items-center gap-2 text-xs text-ink-100">
       <span className="num min-w-[17rem] whitespace-pre text-right" aria-live="off" data-testid="cursor-readout">
-        {p ? `X ${p.x.toFixed(3)} mm  Y ${p.y.toFixed(3)} mm` : cursor && !map ? 'not measured: no fiducial transform' : 'X —  Y —'}
+        {p ? `X ${fixed(p.x)} mm  Y ${fixed(p.y)} mm` : cursor && !map ? 'not measured: no fiducial transform' : 'X —  Y —'}
       </span>
       <label htmlFor={id} className="sr-only">
         Frame of the cursor coordinates
@@ -168,7 +168,7 @@ export function NoteEditor({ store, at, onSubmit, onCancel }: { store: CanvasSto
       }}
     >
       <label className="text-xs font-medium text-ink-700" htmlFor="pw-note-text">
-        Comment at <span className="num">{at.x.toFixed(3)}, {at.y.toFixed(3)} mm</span>
+        Comment at <span className="num">{fixed(at.x)}, {fixed(at.y)} mm</span>
       </label>
       <textarea
         id="pw-note-text"

@@ -5,6 +5,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import type { RunResult } from '../../../../shared/core';
 import { useCanvasState, type CanvasStore } from '../store';
 import { scrollWithin } from './scroll';
+import { fixed } from '../../../lib/format';
 
 const ROW_H = 30;
 /** Up to this many rows are all in the DOM; more are virtualised. */
@@ -107,9 +108,9 @@ export function PlacementTable({ run, store, height = 320 }: { run: RunResult; s
                   <div role="cell" className="truncate px-2">{p.ref[i]}</div>
                   <div role="cell" className={`truncate px-2 ${p.packageName[i] ? '' : 'text-sev-error'}`}>{p.packageName[i] ?? `none (${p.footprint[i]})`}</div>
                   <div role="cell" className="truncate px-2 text-ink-600">{p.value[i]}</div>
-                  <div role="cell" className="num px-2 text-right text-xs">{p.x[i].toFixed(3)}</div>
-                  <div role="cell" className="num px-2 text-right text-xs">{p.y[i].toFixed(3)}</div>
-                  <div role="cell" className="num px-2 text-right text-xs">{p.rotation[i].toFixed(2)}</div>
+                  <div role="cell" className="num px-2 text-right text-xs">{fixed(p.x[i])}</div>
+                  <div role="cell" className="num px-2 text-right text-xs">{fixed(p.y[i])}</div>
+                  <div role="cell" className="num px-2 text-right text-xs">{fixed(p.rotation[i])}</div>
                   <div role="cell" className="px-2 text-xs">{p.nozzle[i] ?? '—'}</div>
                   <div role="cell" className="truncate px-2 text-xs text-ink-600">{p.vision[i] ?? '—'}</div>
                 </div>

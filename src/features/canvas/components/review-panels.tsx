@@ -5,7 +5,7 @@ import type { RunResult, Side } from '../../../../shared/core';
 import { FINDING_KINDS, type Finding, type FindingKind } from '../../../../shared/schemas/finding.schema';
 import { Button } from '../../../components/ui/button';
 import { SelectField } from '../../../components/ui/field';
-import { mm } from '../../../lib/format';
+import { fixed, mm } from '../../../lib/format';
 import type { Scene } from '../scene';
 import { useCanvasState, type CanvasStore, type Tool } from '../store';
 import type { CanvasNote, UnderlayState } from '../types';
@@ -197,7 +197,7 @@ export function UnderlayControls({
           </div>
           {underlay.pairs && (
             <p className="num text-2xs text-ink-500">
-              aligned on {underlay.pairs.panel.map((q) => `(${q.x.toFixed(2)}, ${q.y.toFixed(2)})`).join(' and ')} mm
+              aligned on {underlay.pairs.panel.map((q) => `(${fixed(q.x)}, ${fixed(q.y)})`).join(' and ')} mm
             </p>
           )}
         </>
@@ -222,7 +222,7 @@ export function CommentsList({ notes, side, store }: { notes: readonly CanvasNot
                 {n.text}
                 <span className="num block text-2xs text-ink-500">
                   {n.author ? `${n.author} · ` : ''}
-                  {n.x.toFixed(3)}, {n.y.toFixed(3)} mm
+                  {fixed(n.x)}, {fixed(n.y)} mm
                 </span>
               </button>
             </li>

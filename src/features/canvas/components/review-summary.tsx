@@ -4,6 +4,7 @@
 import type { Finding } from '../../../../shared/schemas/finding.schema';
 import { Badge } from '../../../components/ui/misc';
 import type { CanvasNote } from '../types';
+import { fixed } from '../../../lib/format';
 
 /** Error findings that are not waived: approval needs this list empty. */
 export function unresolvedErrors(findings: readonly Finding[], waivedKeys: ReadonlySet<string> = new Set()): Finding[] {
@@ -58,7 +59,7 @@ export function ReviewSummary({ findings, checkedFindingKeys = new Set(), waived
                   {c.text}
                 </button>
                 <span className="num ml-1 text-ink-500">
-                  ({c.author ? `${c.author}, ` : ''}{c.side}, {c.x.toFixed(3)}, {c.y.toFixed(3)} mm)
+                  ({c.author ? `${c.author}, ` : ''}{c.side}, {fixed(c.x)}, {fixed(c.y)} mm)
                 </span>
               </li>
             ))}

@@ -1,4 +1,5 @@
 import { Arrow, Circle, Group, Layer, Line, Rect, Stage, Text } from 'react-konva';
+import { fixed } from '../../../lib/format';
 
 export interface DrawingValues {
   family: string;
@@ -27,7 +28,7 @@ const C = {
 
 const TWO_TERMINAL = new Set(['chip', 'MELF', 'SOD', 'electrolytic', 'crystal']);
 const ok = (v: number) => Number.isFinite(v);
-const fmt = (v: number) => `${v.toFixed(3)} mm`;
+const fmt = (v: number) => `${fixed(v)} mm`;
 
 /**
  * The package to scale in its zero orientation (DOMAIN.md section 6: body length along X, pin 1
@@ -128,7 +129,7 @@ export function PackageDrawing({ values, width = 438, height = 360 }: { values: 
       {valid && (
         <p className="num border-t border-ink-800 px-3 py-1.5 text-2xs text-ink-300">
           courtyard {fmt(cy)}
-          {(ox !== 0 || oy !== 0) && <> · body offset {ox.toFixed(3)}, {oy.toFixed(3)} mm</>}
+          {(ox !== 0 || oy !== 0) && <> · body offset {fixed(ox)}, {fixed(oy)} mm</>}
           {values.bodyHeight != null && values.bodyHeight > 0 && <> · height {fmt(values.bodyHeight)}</>}
           {rot !== 0 && <> · rotation offset {rot}°</>}
         </p>

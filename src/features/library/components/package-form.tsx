@@ -16,6 +16,7 @@ import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
 import { PackageDrawing } from './package-drawing';
+import { fixed } from '../../../lib/format';
 
 const num = { valueAsNumber: true } as const;
 const optNum = { setValueAs: (v: unknown) => (v === '' || v == null ? null : typeof v === 'number' ? v : Number(v)) };
@@ -60,7 +61,7 @@ function NozzleList({ value, onChange, nozzles, disabled, error }: { value: stri
             <li key={n} className="flex items-center gap-1 rounded border border-ink-300 bg-ink-50 px-1.5 py-0.5 text-xs">
               <span className="num text-ink-500">{i + 1}.</span>
               <span className="font-medium">{n}</span>
-              {nz && <span className="num text-ink-500">⌀ {nz.tipOuter.toFixed(3)} mm</span>}
+              {nz && <span className="num text-ink-500">⌀ {fixed(nz.tipOuter)} mm</span>}
               {!disabled && i > 0 && <button type="button" aria-label={`Prefer ${n}`} className="px-0.5 text-ink-500 hover:text-ink-900" onClick={() => move(i)}>↑</button>}
               {!disabled && <button type="button" aria-label={`Remove ${n}`} className="px-0.5 text-ink-500 hover:text-sev-error" onClick={() => onChange(value.filter((x) => x !== n))}>×</button>}
             </li>
@@ -71,7 +72,7 @@ function NozzleList({ value, onChange, nozzles, disabled, error }: { value: stri
         <div className="flex items-center gap-1">
           <select aria-label="Add a nozzle" value={pick} onChange={(e) => setPick(e.target.value)} className="rounded border border-ink-300 bg-white px-2 py-1 text-sm">
             <option value="">Add a nozzle…</option>
-            {left.map((n) => <option key={n.id} value={n.name}>{n.name} (⌀ {n.tipOuter.toFixed(3)} mm)</option>)}
+            {left.map((n) => <option key={n.id} value={n.name}>{n.name} (⌀ {fixed(n.tipOuter)} mm)</option>)}
           </select>
           <Button variant="secondary" disabled={!pick} onClick={() => { onChange([...value, pick]); setPick(''); }}>Add</Button>
         </div>

@@ -8,6 +8,7 @@ import { PanelPreview } from '../../../../features/programs/components/panel-pre
 import { useSettingsDraft } from '../../../../features/programs/hooks/use-settings-draft';
 import { useWorkspace } from '../workspace';
 import { BOARD_GAP_MM, defaultPitch, FIT_MARGIN_MM, outlineFromExtent, panelProblems } from './panelize-help';
+import { fixed } from '../../../../lib/format';
 
 type Panel = NonNullable<RevisionSettingsInput['panel']>;
 type Grid = NonNullable<Panel['grid']>;
@@ -84,7 +85,7 @@ export default function PanelizeStage() {
           {extent && (
             <div className="col-span-2 flex flex-wrap items-center gap-2 rounded bg-ink-50 px-2 py-1.5 text-xs text-ink-700" data-testid="parts-extent">
               <span>
-                Parts span <span className="num">{extent.minX.toFixed(3)} … {extent.maxX.toFixed(3)} mm</span> in X and <span className="num">{extent.minY.toFixed(3)} … {extent.maxY.toFixed(3)} mm</span> in Y.
+                Parts span <span className="num">{fixed(extent.minX)} … {fixed(extent.maxX)} mm</span> in X and <span className="num">{fixed(extent.minY)} … {fixed(extent.maxY)} mm</span> in Y.
               </span>
               {!ro && (
                 <Button variant="secondary" className="px-2 py-0.5 text-xs" title={`Outline = the parts' centres plus ${FIT_MARGIN_MM} mm on every side; check it against the board's drawing`} onClick={() => setBoard(outlineFromExtent(extent))}>
@@ -170,7 +171,7 @@ export default function PanelizeStage() {
             {problems.overlaps.length > 0 && (
               <p>
                 Boards overlap: {problems.overlaps.slice(0, 6).map(([a, b]) => `${a} and ${b}`).join(', ')}{problems.overlaps.length > 6 ? ` and ${problems.overlaps.length - 6} more pairs` : ''}.
-                {mode === 'grid' && board.width > 0 && board.height > 0 && <> Make the pitch at least the board size (<span className="num">{board.width.toFixed(3)} × {board.height.toFixed(3)} mm</span>, turned boards count with their turned size).</>}
+                {mode === 'grid' && board.width > 0 && board.height > 0 && <> Make the pitch at least the board size (<span className="num">{fixed(board.width)} × {fixed(board.height)} mm</span>, turned boards count with their turned size).</>}
               </p>
             )}
             {problems.offPanel.length > 0 && <p>Board{problems.offPanel.length === 1 ? '' : 's'} {problems.offPanel.slice(0, 10).join(', ')}{problems.offPanel.length > 10 ? '…' : ''} reach{problems.offPanel.length === 1 ? 'es' : ''} outside the panel: enlarge the panel or move the boards.</p>}
@@ -190,7 +191,7 @@ export default function PanelizeStage() {
             <option value="">(none: no reach or nozzle check)</option>
             {machines.data?.map((m) => <option key={m.id} value={m.name}>{m.name} — {m.reachX} × {m.reachY} mm</option>)}
           </SelectField>
-          {machine && <p className="num text-xs text-ink-600">Reach {machine.reachX.toFixed(3)} × {machine.reachY.toFixed(3)} mm · nozzles {machine.nozzles?.join(', ') || 'none'}</p>}
+          {machine && <p className="num text-xs text-ink-600">Reach {fixed(machine.reachX)} × {fixed(machine.reachY)} mm · nozzles {machine.nozzles?.join(', ') || 'none'}</p>}
           {tooBig && <p role="alert" className="rounded bg-sev-error/10 px-2 py-1 text-xs text-sev-error">The panel ({panel.width} × {panel.height} mm) does not fit the machine's reach ({machine!.reachX} × {machine!.reachY} mm).</p>}
         </fieldset>
 

@@ -9,7 +9,7 @@ import { Badge } from '../../../../components/ui/misc';
 import { useApprove, useNewRevision, useReject, useSubmit, useWithdraw } from '../../../../features/programs/api/programs';
 import { ReviewSummaryPanel } from '../../../../features/programs/components/review-summary-panel';
 import { RevisionCanvas } from '../../../../features/programs/components/revision-canvas';
-import { dateTime, fileSize } from '../../../../lib/format';
+import { dateTime, fileSize, fixed } from '../../../../lib/format';
 import { useWorkspace } from '../workspace';
 
 function Comments() {
@@ -24,7 +24,7 @@ function Comments() {
         <ol className="flex flex-col gap-2 text-sm">
           {notes.map((c) => (
             <li key={c.id}>
-              <span className="text-xs text-ink-500">{c.userEmail}, {dateTime(c.at)}{c.x !== null && c.y !== null && <span className="num"> · {c.side} at {c.x.toFixed(3)}, {c.y.toFixed(3)} mm</span>}</span>
+              <span className="text-xs text-ink-500">{c.userEmail}, {dateTime(c.at)}{c.x !== null && c.y !== null && <span className="num"> · {c.side} at {fixed(c.x)}, {fixed(c.y)} mm</span>}</span>
               <p>{c.text}</p>
             </li>
           ))}
