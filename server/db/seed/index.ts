@@ -31,8 +31,9 @@ export { demoSeedMode, type DemoSeedMode } from './when';
  */
 export async function seedDemoIfNew(ds: DataSource, mode: DemoSeedMode, log: (s: string) => void = () => {}, opts: { programs?: boolean } = {}): Promise<'seeded' | 'skipped'> {
   if (mode === 'off') return 'skipped';
-  if (mode === 'if-new' && !(await isNewDatabase(ds))) return 'skipped';
+  const sql = (q: string, params?: unknown[]) => ds.query(q, params);
+  if (mode === 'if-new' && !(await isNewDatabase(sql))) return 'skipped';
   await seedDemo(ds, log, opts);
-  await markSeeded(ds, mode, opts.programs !== false);
+  await markSeeded(sql, mode, opts.programs !== false);
   return 'seeded';
 }

@@ -1,6 +1,7 @@
-import type { DataSource } from 'typeorm';
+// When the demo seed runs. Light on purpose (no TypeORM, no engine): a restart only asks.
 
-// When the demo seed runs. Light on purpose (no engine, no services): a restart only asks.
+/** Runs one SQL statement: a TypeORM DataSource's `query`, or a plain node-postgres client's. */
+export type Sql = (sql: string, params?: unknown[]) => Promise<Record<string, unknown>[]>;
 
 export type DemoSeedMode = 'off' | 'if-new' | 'force';
 
@@ -16,8 +17,8 @@ export function demoSeedMode(value: string | undefined): DemoSeedMode {
 const MARKER = 'demo-seed';
 
 /** New: the seed never ran on it and it has no user (a real site has at least its admin). */
-export async function isNewDatabase(ds: DataSource): Promise<boolean> {
-  const [{ marked, users }]: { marked: boolean; users: boolean }[] = await ds.query(
+export async function isNewDatabase(sql: Sql): Promise<boolean> {
+  const [{ marked, users }] = await sql(
     `SELECT EXISTS (SELECT 1 FROM "app_state" WHERE "key" = $1) AS marked, EXISTS (SELECT 1 FROM "users") AS users`,
     [MARKER],
   );
@@ -25,8 +26,8 @@ export async function isNewDatabase(ds: DataSource): Promise<boolean> {
 }
 
 /** Records in app_state that (and how) the demo seed ran. */
-export async function markSeeded(ds: DataSource, mode: DemoSeedMode, programs: boolean): Promise<void> {
-  await ds.query(
+export async function markSeeded(sql: Sql, mode: DemoSeedMode, programs: boolean): Promise<void> {
+  await sql(
     `INSERT INTO "app_state" ("key", "value") VALUES ($1, $2) ON CONFLICT ("key") DO UPDATE SET "value" = EXCLUDED."value", "updated_at" = now()`,
     [MARKER, JSON.stringify({ at: new Date().toISOString(), mode, programs })],
   );
