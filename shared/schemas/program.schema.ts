@@ -225,6 +225,8 @@ export const revisionDetailSchema = revisionSummarySchema.extend({
   reviewComment: z.string().nullable(),
   reviewedAt: z.string().nullable(),
   hasUnderlay: z.boolean(),
+  /** everyone who changed the revision and what they did: none of them may approve it (four-eyes) */
+  contributors: z.array(z.object({ name: z.string(), email: z.string(), actions: z.array(z.string()) })).default([]),
   /** what the signed-in user may do now */
   can: z.object({ edit: z.boolean(), submit: z.boolean(), review: z.boolean(), withdraw: z.boolean(), newRevision: z.boolean() }),
 });

@@ -157,6 +157,11 @@ describe('defect 3: four-eyes covers everyone who changed the revision', () => {
 
     const asC = await c.a.get(`/api/revisions/${revId}`).expect(200);
     expect(asC.body.can.review).toBe(true);
+    // the reviewer sees who changed it, and what each did, in order
+    expect(asC.body.contributors).toEqual([
+      { name: a.user.name, email: a.user.email, actions: ['create'] },
+      { name: b.user.name, email: b.user.email, actions: ['import', 'settings', 'submit'] },
+    ]);
     const byC = await post(c, `/revisions/${revId}/approve`, { comment: 'Checked on the drawing.' });
     expect(byC.status, JSON.stringify(byC.body)).toBe(200);
     expect(byC.body.state).toBe('released');

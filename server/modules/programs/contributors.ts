@@ -36,6 +36,16 @@ export async function contributorsOf(m: EntityManager, revisionId: string): Prom
   return m.getRepository(RevisionContributor).find({ where: { revisionId }, order: { firstAt: 'ASC', userEmail: 'ASC' } });
 }
 
+/** Everyone who changed the revision, with their names, for the review page. */
+export async function contributorList(m: EntityManager, revisionId: string): Promise<{ name: string; email: string; actions: string[] }[]> {
+  return m.query(
+    `SELECT COALESCE(u."name", c."user_email") AS name, c."user_email" AS email, c."actions" AS actions
+       FROM "revision_contributors" c LEFT JOIN "users" u ON u."id" = c."user_id"
+      WHERE c."revision_id" = $1 ORDER BY c."first_at", c."user_email"`,
+    [revisionId],
+  );
+}
+
 /** True when `userId` changed the revision in any way. */
 export async function isContributor(m: EntityManager, revisionId: string, userId: string): Promise<boolean> {
   return m.getRepository(RevisionContributor).existsBy({ revisionId, userId });

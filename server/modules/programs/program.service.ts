@@ -26,7 +26,7 @@ import type { AuditService } from '../audit/audit.service';
 import type { Mailer } from '../mail/mailer';
 import type { UserService } from '../users/user.service';
 import type { CheckPool } from './check-pool';
-import { assertIndependentReviewer, contributorsOf, isContributor, recordContribution } from './contributors';
+import { assertIndependentReviewer, contributorList, contributorsOf, isContributor, recordContribution } from './contributors';
 import { CENTROID_NAME_FALLBACK, importFile, previewFile, runEngine, type EngineInput } from './engine';
 import { buildReviewSummary, revisionChanges } from './review-summary';
 
@@ -212,6 +212,7 @@ export class ProgramService {
       reviewComment: r.reviewComment,
       reviewedAt: r.reviewedAt?.toISOString() ?? null,
       hasUnderlay: r.underlay !== null,
+      contributors: await contributorList(this.ds.manager, r.id),
       can: {
         edit: isEngineer && r.state === 'draft',
         submit: isEngineer && r.state === 'draft',

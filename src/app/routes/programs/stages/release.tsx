@@ -12,6 +12,9 @@ import { RevisionCanvas } from '../../../../features/programs/components/revisio
 import { dateTime, fileSize, fixed } from '../../../../lib/format';
 import { useWorkspace } from '../workspace';
 
+/** What each recorded change is called on the page (the server records these words). */
+const CONTRIBUTION_WORDS: Record<string, string> = { create: 'created', import: 'imported the file', settings: 'set up', overrides: 'overrode parts', waiver: 'waived findings', submit: 'submitted' };
+
 function Comments() {
   const { revision: r } = useWorkspace();
   const notes = r.comments.filter((c) => c.kind === 'comment');
@@ -142,6 +145,13 @@ export default function ReleaseStage() {
           <p>Submitted {dateTime(r.submittedAt)}. Waiting for review by another engineer: no one who changed this revision (created, imported, set up, overrode, waived or submitted it) may approve it.</p>
           {r.can.withdraw && <Button variant="ghost" className="mt-2" aria-haspopup="dialog" onClick={() => setWithdrawing(true)}>Withdraw</Button>}
         </section>
+      )}
+      {r.state === 'in-review' && r.contributors.length > 0 && (
+        <p className="text-sm text-ink-600" aria-label="Changed by">
+          Changed by {r.contributors.map((c, i) => (
+            <span key={c.email}>{i > 0 && '; '}<span className="font-medium text-ink-800">{c.name}</span> ({c.actions.map((a) => CONTRIBUTION_WORDS[a] ?? a).join(', ')})</span>
+          ))}: they may not approve it.
+        </p>
       )}
       {(r.state === 'draft' || r.state === 'in-review') && r.imported && <ReviewSummaryPanel revisionId={r.id} title={r.state === 'draft' ? 'What you submit' : 'What is approved'} />}
       {r.state === 'in-review' && r.can.review && <Decision />}
