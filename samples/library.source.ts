@@ -1,10 +1,10 @@
 // The demo library (Harrow Creek Instruments), written to samples/library.json by generate.ts.
-// Body sizes: chips exactly as DOMAIN.md section 6 (EIA-198 / IEC 60115-8 size codes, from
+// Body sizes: chips exactly as shared/README.md, "Check values and their sources" (EIA-198 / IEC 60115-8 size codes, from
 // memory); SOT-23 (JEDEC TO-236) and SOIC-8 (JEDEC MS-012) as given there; the rest are typical
 // maker-datasheet dimensions recalled from memory — each package says so in its `source` field.
 // `length` is the body's extent along X in the package's zero orientation, `width` along Y.
 
-const CHIP = 'EIA-198 / IEC 60115-8 size codes, from memory (DOMAIN.md section 6); height typical, from memory';
+const CHIP = 'EIA-198 / IEC 60115-8 size codes, from memory; height typical, from memory';
 const MEM = 'typical maker-datasheet dimensions, from memory';
 
 export const library = {
@@ -21,8 +21,8 @@ export const library = {
     { name: 'C1206', aliases: ['CAP-1206*'], body: { length: 3.2, width: 1.6, height: 1.6 }, courtyard: 0.25, nozzles: ['N14', 'N10'], vision: 'chip-medium', tape: { width: 8, pitch: 4 }, source: CHIP },
     { name: 'C1210', aliases: ['CAP-1210*'], body: { length: 3.2, width: 2.5, height: 2.5 }, courtyard: 0.25, nozzles: ['N14'], vision: 'chip-medium', tape: { width: 8, pitch: 4 }, source: CHIP },
     { name: 'R2512', aliases: ['RES-2512*'], body: { length: 6.3, width: 3.2, height: 0.6 }, courtyard: 0.25, nozzles: ['N25'], vision: 'chip-large', tape: { width: 12, pitch: 4 }, source: CHIP },
-    { name: 'SOT-23', aliases: ['SOT23', 'SOT-23-*'], body: { length: 2.9, width: 1.3, height: 1.0 }, courtyard: 0.25, rotationOffset: -90, nozzles: ['N07'], vision: 'lead-row', tape: { width: 8, pitch: 4 }, source: 'JEDEC TO-236, from memory (DOMAIN.md section 6); our CAD library draws it pin 1 at the lower left, hence rotationOffset -90' },
-    { name: 'SOIC-8', aliases: ['SOIC8', 'SOIC-8-*'], body: { length: 4.9, width: 3.9, height: 1.75 }, courtyard: 0.25, nozzles: ['N14', 'N10'], vision: 'lead-row', tape: { width: 12, pitch: 8 }, source: 'JEDEC MS-012, from memory (DOMAIN.md section 6): body 4.9 x 3.9, 6.0 across the leads' },
+    { name: 'SOT-23', aliases: ['SOT23', 'SOT-23-*'], body: { length: 2.9, width: 1.3, height: 1.0 }, courtyard: 0.25, rotationOffset: -90, nozzles: ['N07'], vision: 'lead-row', tape: { width: 8, pitch: 4 }, source: 'JEDEC TO-236, from memory; our CAD library draws it pin 1 at the lower left, hence rotationOffset -90' },
+    { name: 'SOIC-8', aliases: ['SOIC8', 'SOIC-8-*'], body: { length: 4.9, width: 3.9, height: 1.75 }, courtyard: 0.25, nozzles: ['N14', 'N10'], vision: 'lead-row', tape: { width: 12, pitch: 8 }, source: 'JEDEC MS-012, from memory: body 4.9 x 3.9, 6.0 across the leads' },
     { name: 'SOD-123', aliases: ['SOD123'], body: { length: 2.7, width: 1.6, height: 1.1 }, courtyard: 0.25, nozzles: ['N10'], vision: 'lead-row', tape: { width: 8, pitch: 4 }, source: MEM },
     { name: 'SMA', aliases: ['DO-214AC'], body: { length: 4.3, width: 2.6, height: 2.3 }, courtyard: 0.25, nozzles: ['N14'], vision: 'chip-large', tape: { width: 12, pitch: 4 }, source: 'JEDEC DO-214AC, ' + MEM },
     { name: 'SOT-223', aliases: ['SOT223'], body: { length: 6.5, width: 3.5, height: 1.7 }, courtyard: 0.25, nozzles: ['N25'], vision: 'lead-row', tape: { width: 12, pitch: 8 }, source: MEM },

@@ -1,4 +1,4 @@
-// Placewright command line: `npm run --silent cli -- COMMAND [options]` (CLI.md).
+// Placewright command line: `npm run --silent cli -- COMMAND [options]` (server/cli/README.md).
 // A small dispatcher; each command lives in server/cli/<command>.ts and exports a `Command`.
 import { EngineInputError } from '../shared/core';
 import { CliUsageError, EXIT_BAD_INPUT, type CliIo, type Command } from './cli/common';

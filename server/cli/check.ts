@@ -1,4 +1,4 @@
-// `cli check JOB.json [--side top|bottom|both] [--out FILE]` (CLI.md): run the job for the side(s)
+// `cli check JOB.json [--side top|bottom|both] [--out FILE]` (server/cli/README.md): run the job for the side(s)
 // and print the findings as JSON. Exit 1 when an error-severity finding remains.
 import type { Side } from '../../shared/core';
 import { emit, EXIT_FINDINGS, EXIT_OK, loadJob, one, onePositional, parseArgs, runLoaded, warn, type Command } from './common';

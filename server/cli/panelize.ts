@@ -16,7 +16,7 @@ export const panelizeCommand: Command = {
 
 Imports the job's centroid file, steps the board out over the panel, applies the fiducial
 transform (when fiducials are measured on that side), assigns library packages and prints the
-neutral placement list (PLACEMENT-LIST.md) for one side.
+neutral placement list (shared/placement-list/README.md) for one side.
 
 Options:
   --side S        top (default) or bottom

@@ -9,7 +9,7 @@
 //
 // Frames: every x/y in this file is in the OUTPUT frame (`RunResult.frame`): the machine frame
 // when a fiducial transform was applied, else the panel frame — for the bottom side that is the
-// bottom panel frame (DOMAIN.md section 2). Units: mm and degrees; rotations in [0, 360).
+// bottom panel frame (shared/README.md, "Rotation and the bottom side"). Units: mm and degrees; rotations in [0, 360).
 
 export type Side = 'top' | 'bottom';
 export type OutputFrame = 'machine' | 'panel';
@@ -42,7 +42,7 @@ export interface PlacementColumns {
   count: number;
   /** 1-based placement order (seq[i] === i + 1) */
   seq: Int32Array;
-  /** 1-based board number (DOMAIN.md section 3) */
+  /** 1-based board number (shared/README.md, "Step-and-repeat") */
   board: Int32Array;
   ref: string[];
   side: Side[];

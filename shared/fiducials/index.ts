@@ -1,4 +1,4 @@
-// Fiducial transform fitting (DOMAIN.md section 4): translation, rigid, similarity (closed form of
+// Fiducial transform fitting (shared/README.md, "Fiducial transform"): translation, rigid, similarity (closed form of
 // Umeyama 1991, IEEE TPAMI 13(4)) and affine (6-parameter linear least squares, mathjs lusolve).
 import { lusolve } from 'mathjs';
 import {

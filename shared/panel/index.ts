@@ -1,4 +1,4 @@
-// Panel step-and-repeat (DOMAIN.md section 3) and the bottom flip (section 2).
+// Panel step-and-repeat (shared/README.md, "Step-and-repeat") and the bottom flip ("Rotation and the bottom side").
 import { boundsOf, composeAffine, mapRect, normDeg, rotationAffine, type Affine } from '../geometry';
 import { EngineInputError } from '../core';
 import type { FlipAxis, Side } from '../core';

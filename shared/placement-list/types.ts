@@ -1,4 +1,4 @@
-// The neutral placement list, format 1 (PLACEMENT-LIST.md), as read back.
+// The neutral placement list, format 1 (shared/placement-list/README.md), as read back.
 export const LIST_FORMAT = 'placewright-placement-list/1';
 export const CSV_HEADER = 'seq,board,ref,x,y,rotation,package,nozzle,vision,height,part_number,value';
 

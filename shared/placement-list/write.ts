@@ -1,4 +1,4 @@
-// Neutral placement list writer (PLACEMENT-LIST.md), CSV and JSON.
+// Neutral placement list writer (shared/placement-list/README.md), CSV and JSON.
 import type { RunResult, TransformResult } from '../core';
 import { csvField } from '../csv-safety'; // RFC 4180 fields with spreadsheet formulas neutralised (OWASP)
 import { fmt3, fmtRot3, fmtShort, sha256Hex } from './format';

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-/** The kinds of finding of the `check` step (DOMAIN.md section 11), in report order. */
+/** The kinds of finding of the `check` step (shared/README.md, "Findings"), in report order. */
 export const FINDING_KINDS = [
   'body-overlap',
   'courtyard-overlap',

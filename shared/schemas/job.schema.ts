@@ -1,4 +1,4 @@
-// The job file (CLI.md "Job file"), zod 4. Strict objects: a misspelt key is an error, not ignored.
+// The job file (shared/schemas/README.md, "Job file"), zod 4. Strict objects: a misspelt key is an error, not ignored.
 import { z } from 'zod';
 import { FIELDS } from '../centroid';
 
@@ -79,7 +79,7 @@ export const machineSchema = z.strictObject({
   nozzles: z.array(z.string().min(1)).default([]),
 });
 
-/** alignment warning limits (DOMAIN.md section 4 defaults) */
+/** alignment warning limits (shared/README.md, "Fiducial transform" defaults) */
 export const limitsSchema = z.strictObject({
   residual: positive.default(0.05),
   scalePpm: positive.default(1000),

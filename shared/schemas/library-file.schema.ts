@@ -1,4 +1,4 @@
-// The library file (CLI.md "Library file", the library's export format), zod 4.
+// The library file (the library's export format, shared/schemas/README.md), zod 4.
 // Extra keys are allowed (passthrough) so that a library can carry notes and sources.
 import { z } from 'zod';
 

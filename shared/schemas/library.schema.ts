@@ -1,4 +1,4 @@
-// The package library's API schemas (issue 4): packages, footprint aliases, nozzles, vision
+// The package library's API schemas: packages, footprint aliases, nozzles, vision
 // presets, machine profiles, proposals, the unmatched-footprints queue and revisions. zod 4.
 // Shared by the server (validate) and the client (forms, response parsing).
 import { z } from 'zod';
@@ -8,7 +8,7 @@ export const PACKAGE_FAMILIES = ['chip', 'MELF', 'SOD', 'SOT', 'SOIC', 'SSOP/TSS
 export type PackageFamily = (typeof PACKAGE_FAMILIES)[number];
 export const FEEDER_KINDS = ['tape', 'strip', 'tray', 'tube'] as const;
 export type FeederKind = (typeof FEEDER_KINDS)[number];
-/** Carrier tape widths, mm (EIA-481, from memory; DOMAIN.md section 7). */
+/** Carrier tape widths, mm (EIA-481, from memory). */
 export const TAPE_WIDTHS = [8, 12, 16, 24, 32, 44, 56, 72] as const;
 /** Our own vision preset methods: how the up-looking camera centres a part. */
 export const VISION_METHODS = ['body-outline', 'lead-tips', 'ball-grid', 'corner-edges', 'none'] as const;
@@ -22,12 +22,12 @@ export const VISION_METHOD_LABELS: Record<VisionMethod, string> = {
 };
 export const LIGHTINGS = ['top', 'side', 'both'] as const;
 export type Lighting = (typeof LIGHTINGS)[number];
-/** IPC-7351B density level B courtyard excess, mm (from memory; DOMAIN.md section 6). */
+/** IPC-7351B density level B courtyard excess, mm (from memory). */
 export const DEFAULT_COURTYARD_MM = 0.25;
 
 const EPS = 1e-9;
 
-/** Why a tape width / pocket pitch pair is not EIA-481, or null when it is (DOMAIN.md section 7). */
+/** Why a tape width / pocket pitch pair is not EIA-481, or null when it is (shared/README.md, "Check values and their sources"). */
 export function tapeProblem(width: number | null, pitch: number | null): { path: 'tapeWidth' | 'tapePitch'; message: string } | null {
   if (width == null && pitch == null) return null;
   if (width == null) return { path: 'tapeWidth', message: 'Give the tape width too, or clear the pocket pitch' };
@@ -104,7 +104,7 @@ export function blankPackage(nameValue = ''): CreatePackageInput {
 }
 
 /**
- * Advice that does not block saving (DOMAIN.md section 8, common practice): a nozzle tip wider than
+ * Advice that does not block saving (common practice): a nozzle tip wider than
  * the body's smaller side may not seal on the part. Unknown nozzles are errors, checked elsewhere.
  */
 export function packageWarnings(

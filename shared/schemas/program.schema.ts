@@ -29,7 +29,7 @@ export const createProgramInputSchema = z.object({
 export type CreateProgramInput = z.infer<typeof createProgramInputSchema>;
 
 /**
- * A revision's job settings: the job file of CLI.md without the file names. Board and panel may
+ * A revision's job settings: the job file (shared/schemas/README.md) without the file names. Board and panel may
  * be missing while the engineer works through the stages; running needs both.
  */
 export const revisionSettingsSchema = z.strictObject({
@@ -43,7 +43,7 @@ export const revisionSettingsSchema = z.strictObject({
 });
 export type RevisionSettings = z.output<typeof revisionSettingsSchema>;
 
-/** A job file (CLI.md) as revision settings: the job without its file names and labels. */
+/** A job file (shared/schemas/README.md) as revision settings: the job without its file names and labels. */
 export function settingsFromJob(job: Record<string, unknown>): RevisionSettings {
   const { centroid: _c, library: _l, program: _p, revision: _r, overrides: _o, ...settings } = job;
   return revisionSettingsSchema.parse(settings);

@@ -3,7 +3,7 @@ import { machineSchema } from './job.schema';
 
 /**
  * The answer of GET /api/run-files/:id/setup-sheet: the released JSON lists of each side (format 1
- * of PLACEMENT-LIST.md, read loosely: unknown keys are dropped), the machine and the program.
+ * of shared/placement-list/README.md, read loosely: unknown keys are dropped), the machine and the program.
  */
 const num = z.number();
 

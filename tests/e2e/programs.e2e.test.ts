@@ -98,7 +98,7 @@ describe('a program from upload to released run file, in Chromium', () => {
     expect(shown).toMatch(/^[0-9a-f]{64}$/);
     const [download] = await Promise.all([page.waitForEvent('download'), row.getByRole('link', { name: 'CSV' }).click()]);
     const text = readFileSync((await download.path())!, 'utf8');
-    // PLACEMENT-LIST.md: the digest covers every byte after the metadata lines.
+    // shared/placement-list/README.md: the digest covers every byte after the metadata lines.
     const body = text.split('\n').filter((l) => !l.startsWith('# ')).join('\n');
     expect(createHash('sha256').update(body).digest('hex')).toBe(shown);
     expect(text).toContain(`# sha256: ${shown}`);

@@ -98,7 +98,7 @@ describe('run files in Chromium', () => {
       const path = await download.path();
       const text = readFileSync(path, 'utf8');
       // A CSV's SHA-256 covers every byte after the metadata lines, header row included
-      // (PLACEMENT-LIST.md), and the file names it in its own `# sha256:` line.
+      // (shared/placement-list/README.md), and the file names it in its own `# sha256:` line.
       const body = text.slice(text.indexOf('seq,board,ref,'));
       expect(createHash('sha256').update(body, 'utf8').digest('hex')).toBe(shown);
       expect(/^# sha256: ([0-9a-f]{64})$/m.exec(text)![1]).toBe(shown);

@@ -48,7 +48,7 @@ describe('packages', () => {
   });
 
   it.each([
-    // EIA-481 (from memory; DOMAIN.md section 7): widths 8, 12, 16, 24, 32, 44, 56, 72 mm; pitch 2 mm on 8 mm tape only, else multiples of 4 mm
+    // EIA-481 (from memory): widths 8, 12, 16, 24, 32, 44, 56, 72 mm; pitch 2 mm on 8 mm tape only, else multiples of 4 mm
     [10, 4, 'tapeWidth'],
     [12, 2, 'tapePitch'],
     [8, 6, 'tapePitch'],
@@ -117,7 +117,7 @@ describe('packages', () => {
 });
 
 describe('footprint matching through the API', () => {
-  it('name, then exact alias, then the longest pattern (CLI.md "Library file")', async () => {
+  it('name, then exact alias, then the longest pattern (shared/schemas/README.md, "Library file")', async () => {
     const lib = await signedInAgent(ctx, ['librarian']);
     await post(lib, '/library/packages', pkg({ name: 'SOT-23', family: 'SOT', aliases: ['SOT-23*', 'SOT23'] })).expect(201);
     await post(lib, '/library/packages', pkg({ name: 'SOT-23-5', family: 'SOT', aliases: ['SOT-23-5*'] })).expect(201);

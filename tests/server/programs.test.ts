@@ -119,7 +119,7 @@ describe('programs: upload → release → download', () => {
     expect(dl.headers['x-content-sha256']).toBe(csvFile.sha256);
     expect(dl.headers['x-file-sha256']).toBe(createHash('sha256').update(dl.body as Buffer).digest('hex'));
     const text = (dl.body as Buffer).toString('utf8');
-    // PLACEMENT-LIST.md: sha256 = hex digest of every byte after the metadata lines.
+    // shared/placement-list/README.md: sha256 = hex digest of every byte after the metadata lines.
     const body = text.split('\n').filter((l) => !l.startsWith('# ')).join('\n');
     expect(createHash('sha256').update(body).digest('hex')).toBe(csvFile.sha256);
     const parsed = await readPlacementListCsv(text);

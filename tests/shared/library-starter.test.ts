@@ -16,7 +16,7 @@ describe('starter library', () => {
     expect(value.packages.length).toBeGreaterThanOrEqual(60);
   });
 
-  // EIA-198 / IEC 60115-8 size codes, from memory (DOMAIN.md section 6): nominal L × W in mm.
+  // EIA-198 / IEC 60115-8 size codes, from memory: nominal L × W in mm.
   it.each([
     ['01005', 0.4, 0.2],
     ['0201', 0.6, 0.3],
@@ -34,21 +34,21 @@ describe('starter library', () => {
     if (c) expect(c.body).toMatchObject({ length: l, width: w });
   });
 
-  it('SOT-23 and SOIC-8 bodies as DOMAIN.md section 6 gives them (JEDEC TO-236 and MS-012, from memory)', () => {
+  it('SOT-23 and SOIC-8 bodies as shared/README.md, "Check values and their sources" gives them (JEDEC TO-236 and MS-012, from memory)', () => {
     expect(byName.get('SOT-23')!.body).toMatchObject({ length: 2.9, width: 1.3 });
     expect(byName.get('SOIC-8')!.body).toMatchObject({ length: 4.9, width: 3.9 });
   });
 
-  it('every tape is an EIA-481 width with a pitch that suits it (from memory, DOMAIN.md section 7)', () => {
+  it('every tape is an EIA-481 width with a pitch that suits it (from memory)', () => {
     for (const p of lib.packages) if (p.tape) expect([p.name, tapeProblem(p.tape.width, p.tape.pitch)]).toEqual([p.name, null]);
   });
 
-  it('no listed nozzle has a tip wider than its package body’s smaller side (DOMAIN.md section 8, common practice)', () => {
+  it('no listed nozzle has a tip wider than its package body’s smaller side (common practice)', () => {
     const { value } = parseLibraryFile(STARTER_LIBRARY);
     for (const p of value.packages) expect([p.name, packageWarnings(p, value.nozzles)]).toEqual([p.name, []]);
   });
 
-  it('the demo machines reach 400 × 400 mm (DOMAIN.md section 9, common practice)', () => {
+  it('the demo machines reach 400 × 400 mm (common practice)', () => {
     for (const m of STARTER_LIBRARY.machines) expect([m.reachX, m.reachY]).toEqual([400, 400]);
   });
 

@@ -2,7 +2,7 @@ import { Column, CreateDateColumn, Entity, Index, OneToMany, PrimaryGeneratedCol
 import type { FeederKind, PackageFamily } from '../../../shared/schemas/library.schema';
 import { LibraryAlias } from './library-alias.entity';
 
-/** A package of the shared library (issue 4). Sizes in mm, angles in degrees. */
+/** A package of the shared library. Sizes in mm, angles in degrees. */
 @Entity({ name: 'library_packages' })
 export class LibraryPackage {
   @PrimaryGeneratedColumn('uuid')

@@ -1,17 +1,17 @@
 // The starter library seeded with the demo (Harrow Creek Instruments, an invented scenario), in
-// the library file format of CLI.md. Every value names its source in the package's `notes`:
-//   - chip body sizes: exactly DOMAIN.md section 6 (EIA-198 / IEC 60115-8 size codes, from memory)
-//   - SOT-23 (JEDEC TO-236) and SOIC-8 (JEDEC MS-012): DOMAIN.md section 6, from memory
+// the library file format (shared/schemas/README.md). Every value names its source in the package's `notes`:
+//   - chip body sizes: exactly shared/README.md, "Check values and their sources" (EIA-198 / IEC 60115-8 size codes, from memory)
+//   - SOT-23 (JEDEC TO-236) and SOIC-8 (JEDEC MS-012): shared/README.md, "Check values and their sources", from memory
 //   - other bodies: the JEDEC outline or a typical maker datasheet, as named, from memory
 //   - heights: typical, from memory
-//   - tape widths and pocket pitches: EIA-481, from memory (DOMAIN.md section 7)
+//   - tape widths and pocket pitches: EIA-481, from memory
 //   - courtyard 0.25 mm: IPC-7351B density level B, from memory (0.5 mm, level A, for tall parts)
 //   - nozzle lists, vision presets, rotation offsets, machine profiles: the demo's own
 // The entries of samples/library.json are reused as they are (names, aliases, sizes, nozzles), so
 // every footprint of the demo's centroid files matches a package or alias (the planted
 // TERMBLOCK-5MM of samples/faulty excepted: it is meant to match nothing).
 
-const CHIP = 'EIA-198 / IEC 60115-8 size codes, from memory (DOMAIN.md section 6)';
+const CHIP = 'EIA-198 / IEC 60115-8 size codes, from memory';
 const H = 'height typical, from memory';
 const TAPE = 'tape EIA-481, from memory';
 const CY_B = 'courtyard IPC-7351B level B, from memory';
@@ -62,7 +62,7 @@ function pkg(
   };
 }
 
-// ---- two-terminal chips (sizes: DOMAIN.md section 6)
+// ---- two-terminal chips (sizes: shared/README.md, "Check values and their sources")
 const SIZES: [eia: string, metric: string, l: number, w: number][] = [
   ['01005', '0402M', 0.4, 0.2],
   ['0201', '0603M', 0.6, 0.3],
@@ -79,7 +79,7 @@ export const CHIP_SIZES = SIZES;
 function chipSetup(eia: string): { nozzles: string[]; vision: string; tape: [number, number] } {
   switch (eia) {
     // samples/library.json lists a wider second nozzle for 0402 and 0603 (N07, N10); the starter
-    // keeps the first choice only, since those tips are wider than the body (DOMAIN.md section 8).
+    // keeps the first choice only, since those tips are wider than the body (shared/README.md, "Library assignment").
     case '01005': return { nozzles: ['N02'], vision: 'chip-small', tape: [8, 2] };
     case '0201': return { nozzles: ['N03'], vision: 'chip-small', tape: [8, 2] };
     case '0402': return { nozzles: ['N05'], vision: 'chip-small', tape: [8, 2] };
@@ -135,7 +135,7 @@ const discretes: Pkg[] = [
   pkg('SMA', 'SOD', [4.3, 2.6, 2.3], { aliases: ['DO-214AC'], nozzles: ['N14'], vision: 'chip-large', tape: [12, 4], polarised: true, body: 'JEDEC DO-214AC, ' + MEM }),
   pkg('SMB', 'SOD', [4.3, 3.6, 2.3], { aliases: ['DO-214AA'], nozzles: ['N25'], vision: 'chip-large', tape: [12, 8], polarised: true, body: 'JEDEC DO-214AA, ' + MEM }),
   pkg('SMC', 'SOD', [6.9, 5.9, 2.3], { aliases: ['DO-214AB'], nozzles: ['N25', 'N40'], vision: 'chip-large', tape: [16, 8], polarised: true, body: 'JEDEC DO-214AB, ' + MEM }),
-  pkg('SOT-23', 'SOT', [2.9, 1.3, 1.0], { aliases: ['SOT23', 'SOT-23-*'], nozzles: ['N07'], vision: 'lead-row', tape: [8, 4], rotationOffset: -90, polarised: true, pads: { count: 3 }, body: 'JEDEC TO-236, from memory (DOMAIN.md section 6)', extra: 'The demo CAD library draws it pin 1 at the lower left, hence the rotation offset of −90° (as samples/library.json)' }),
+  pkg('SOT-23', 'SOT', [2.9, 1.3, 1.0], { aliases: ['SOT23', 'SOT-23-*'], nozzles: ['N07'], vision: 'lead-row', tape: [8, 4], rotationOffset: -90, polarised: true, pads: { count: 3 }, body: 'JEDEC TO-236, from memory', extra: 'The demo CAD library draws it pin 1 at the lower left, hence the rotation offset of −90° (as samples/library.json)' }),
   pkg('SOT-23-5', 'SOT', [2.9, 1.6, 1.1], { aliases: ['SOT23-5', 'SOT-23-5-*', 'SC-74A*'], nozzles: ['N07', 'N10'], vision: 'lead-row', tape: [8, 4], polarised: true, pads: { count: 5 }, body: 'JEDEC MO-178, from memory' }),
   pkg('SOT-23-6', 'SOT', [2.9, 1.6, 1.1], { aliases: ['SOT23-6', 'SOT-23-6-*', 'SC-74*'], nozzles: ['N07', 'N10'], vision: 'lead-row', tape: [8, 4], polarised: true, pads: { count: 6 }, body: 'JEDEC MO-178, from memory' }),
   pkg('SOT-323', 'SOT', [2.0, 1.25, 0.95], { aliases: ['SOT323', 'SC-70', 'SC-70-3*'], nozzles: ['N07'], vision: 'lead-row', tape: [8, 4], polarised: true, pads: { count: 3 }, body: 'JEDEC MO-203 (SC-70), from memory' }),
@@ -145,7 +145,7 @@ const discretes: Pkg[] = [
 ];
 
 const ics: Pkg[] = [
-  pkg('SOIC-8', 'SOIC', [4.9, 3.9, 1.75], { aliases: ['SOIC8', 'SOIC-8-*'], nozzles: ['N14', 'N10'], vision: 'lead-row', tape: [12, 8], polarised: true, pads: { length: 1.55, width: 0.6, count: 8 }, body: 'JEDEC MS-012 AA, from memory (DOMAIN.md section 6): 4.9 × 3.9, 6.0 across the leads' }),
+  pkg('SOIC-8', 'SOIC', [4.9, 3.9, 1.75], { aliases: ['SOIC8', 'SOIC-8-*'], nozzles: ['N14', 'N10'], vision: 'lead-row', tape: [12, 8], polarised: true, pads: { length: 1.55, width: 0.6, count: 8 }, body: 'JEDEC MS-012 AA, from memory: 4.9 × 3.9, 6.0 across the leads' }),
   pkg('SOIC-14', 'SOIC', [8.65, 3.9, 1.75], { aliases: ['SOIC14', 'SOIC-14-*'], nozzles: ['N25', 'N14'], vision: 'lead-row', tape: [16, 8], polarised: true, pads: { count: 14 }, body: 'JEDEC MS-012 AB, from memory' }),
   pkg('SOIC-16', 'SOIC', [9.9, 3.9, 1.75], { aliases: ['SOIC16', 'SOIC-16-*'], nozzles: ['N25', 'N14'], vision: 'lead-row', tape: [16, 8], polarised: true, pads: { count: 16 }, body: 'JEDEC MS-012 AC, from memory' }),
   pkg('SOIC-16W', 'SOIC', [10.3, 7.5, 2.65], { aliases: ['SOIC16W', 'SOIC-16W-*'], nozzles: ['N25'], vision: 'lead-row', tape: [16, 12], polarised: true, pads: { count: 16 }, body: 'JEDEC MS-013 AA, from memory' }),
@@ -181,7 +181,7 @@ const passivesLarge: Pkg[] = [
   pkg('SW-TACT-6x6', 'other', [6.0, 6.0, 4.3], { aliases: ['SW-TACT-6X6*'], nozzles: ['N40'], vision: 'tall-body', tape: [16, 12], courtyard: 0.5, body: MEM }),
 ];
 
-// Connectors with their origin on pin 1: the body centre is offset (DOMAIN.md section 11).
+// Connectors with their origin on pin 1: the body centre is offset (shared/README.md, "Findings").
 const connectors: Pkg[] = [
   pkg('HDR-1x2-2.54', 'connector', [5.1, 2.5, 8.5], { aliases: ['CONN-2P*'], nozzles: ['N25'], vision: 'tall-body', tape: [16, 8], offset: [1.27, 0], body: MEM + '; origin on pin 1' }),
   pkg('HDR-1x4-2.0', 'connector', [10.0, 4.5, 6.0], { aliases: ['HDR-1X4-2.0*'], nozzles: [], vision: 'tall-body', tape: [16, 8], offset: [3.0, -1.0], body: MEM + '; origin on pin 1, so the body centre is offset', extra: 'No nozzle list on purpose, as samples/library.json: the largest tip that fits is chosen' }),
@@ -215,9 +215,9 @@ export const STARTER_LIBRARY = {
     { name: 'ball-grid', method: 'ball-grid', lighting: 'side', sizeTolerancePct: 8, maxCentringOffset: 0.5, maxAngleCorrection: 3, notes: "The demo's own values." },
     { name: 'tall-body', method: 'body-outline', lighting: 'top', sizeTolerancePct: 15, maxCentringOffset: 1.0, maxAngleCorrection: 5, notes: "The demo's own values (samples/library.json names its method silhouette)." },
   ],
-  // The demo's two desktop machines: 400 × 400 mm reach (DOMAIN.md section 9, common practice).
+  // The demo's two desktop machines: 400 × 400 mm reach (common practice).
   machines: [
-    { name: 'HC line A (desktop)', reachX: 400, reachY: 400, nozzles: ['N02', 'N03', 'N05', 'N07', 'N10', 'N14', 'N25', 'N40'], maxPartHeight: 12, notes: "Reach: DOMAIN.md section 9 (common practice). Nozzles and part height: the demo's own (N02 and N03 added for the finest chips)." },
-    { name: 'HC line B (desktop)', reachX: 400, reachY: 400, nozzles: ['N05', 'N07', 'N10', 'N14', 'N25'], maxPartHeight: 12, notes: "Reach: DOMAIN.md section 9 (common practice). Nozzles and part height: the demo's own." },
+    { name: 'HC line A (desktop)', reachX: 400, reachY: 400, nozzles: ['N02', 'N03', 'N05', 'N07', 'N10', 'N14', 'N25', 'N40'], maxPartHeight: 12, notes: "Reach: common practice for desktop machines of this kind. Nozzles and part height: the demo's own (N02 and N03 added for the finest chips)." },
+    { name: 'HC line B (desktop)', reachX: 400, reachY: 400, nozzles: ['N05', 'N07', 'N10', 'N14', 'N25'], maxPartHeight: 12, notes: "Reach: common practice for desktop machines of this kind. Nozzles and part height: the demo's own." },
   ],
 };

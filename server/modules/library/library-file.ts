@@ -1,4 +1,4 @@
-// The whole library ⇄ the library file of CLI.md ("placewright-library/1"). The export is canonical:
+// The whole library ⇄ the library file (shared/schemas/README.md) ("placewright-library/1"). The export is canonical:
 // fixed key order, things sorted by their lower-cased name, optional keys left out when empty, so
 // export → import → export gives the same bytes.
 import type { LibraryAlias } from '../../db/entities/library-alias.entity';

@@ -52,7 +52,7 @@ const ip = (req: Request) => req.ip ?? null;
 const id = (req: Request) => String(req.params.id);
 const actorWithName = (req: Request) => ({ ...actorOf(req), name: req.user?.name });
 
-/** The package library's routes (issue 4). Returns the services for other modules. */
+/** The package library's routes. Returns the services for other modules. */
 export function registerLibraryRoutes(api: ApiRoutes, deps: LibraryDeps) {
   const library = new LibraryService(deps.ds, deps.audit);
   const unmatched = new UnmatchedService(deps.ds, library);

@@ -1,4 +1,4 @@
-// The package library (issue 4): packages, aliases, nozzles, vision presets and machine profiles,
+// The package library: packages, aliases, nozzles, vision presets and machine profiles,
 // with a revision row and an audit event for every edit and optimistic locking by version.
 import type { DataSource, EntityManager, EntityTarget, ObjectLiteral } from 'typeorm';
 import { In, IsNull } from 'typeorm';
@@ -107,7 +107,7 @@ export async function loadLibraryRows(m: EntityManager): Promise<LibraryRows> {
 }
 
 /**
- * The library as the engine's LibraryFile (CLI.md "Library file"): what the programs module hands
+ * The library as the engine's LibraryFile (shared/schemas/README.md, "Library file"): what the programs module hands
  * to shared/pipeline. Pass the transaction's manager to read inside it.
  */
 export async function getLibraryFile(manager: EntityManager): Promise<LibraryFile> {

@@ -195,7 +195,7 @@ export function registerProgramRoutes(api: ApiRoutes, programs: ProgramService, 
     const { file, name } = await runFiles.file(id(req), side, format);
     res.setHeader('Content-Type', format === 'csv' ? 'text/csv; charset=utf-8' : 'application/json; charset=utf-8');
     res.setHeader('Content-Disposition', `attachment; filename="${name}"`);
-    // The list's own digest (PLACEMENT-LIST.md: CSV — every byte after the metadata lines), and
+    // The list's own digest (shared/placement-list/README.md: CSV — every byte after the metadata lines), and
     // the digest of the whole file as sent, for tools like sha256sum.
     res.setHeader('X-Content-SHA256', file.sha256);
     res.setHeader('X-File-SHA256', createHash('sha256').update(file.bytes).digest('hex'));

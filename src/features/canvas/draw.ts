@@ -119,7 +119,7 @@ export function drawBase(ctx: CanvasRenderingContext2D, scene: Scene, vp: Viewpo
     ctx.stroke();
     ctx.setLineDash([]);
     ctx.beginPath();
-    // the copper dot: 1.0 mm across (DOMAIN.md section 5, common practice), at least 3 px
+    // the copper dot: 1.0 mm across (common practice), at least 3 px
     const r = Math.max(0.5, 1.5 * px);
     for (const f of run.fiducials) {
       ctx.moveTo(f.x + r, f.y);

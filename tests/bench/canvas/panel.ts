@@ -90,7 +90,7 @@ export function syntheticRun(seed = 20261202, partsPerBoard = PER_BOARD): RunRes
         p.bodyLength[i] = d.m[1];
         p.bodyWidth[i] = d.m[2];
         p.bodyHeight[i] = d.m[3];
-        p.courtyard[i] = 0.1; // IPC-7351B density level C (DOMAIN.md section 6, from memory)
+        p.courtyard[i] = 0.1; // IPC-7351B density level C (from memory)
         p.holderRadius[i] = 1;
         p.value[i] = '10k';
         p.partNumber[i] = 'HCI-BENCH';

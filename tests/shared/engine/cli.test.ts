@@ -126,7 +126,7 @@ describe('cli panelize', () => {
 });
 
 describe('cli align', () => {
-  test('weather-station: transform JSON per CLI.md', async () => {
+  test('weather-station: transform JSON per server/cli/README.md', async () => {
     const r = await cli('align', samplePath('weather-station/job.json'));
     expect(r.code).toBe(0);
     const t = JSON.parse(r.stdout);

@@ -6,7 +6,7 @@ import { loadSampleLibrary } from './helpers';
 const pkg = (name: string, aliases: string[] = [], extra: object = {}) =>
   libraryPackageSchema.parse({ name, aliases, body: { length: 1.6, width: 0.8, height: 0.8 }, ...extra });
 
-describe('footprint matching (CLI.md: name, alias, pattern longest first; case-insensitive)', () => {
+describe('footprint matching (shared/library/README.md: name, alias, pattern longest first; case-insensitive)', () => {
   const m = new PackageMatcher([
     pkg('C0603', ['0603', 'C_0603*']),
     pkg('R0603', ['R_0603*', 'R_06*']),
@@ -79,7 +79,7 @@ describe('nozzle choice', () => {
 describe('sample library', () => {
   const lib = loadSampleLibrary();
   const body = (n: string) => lib.packages.find((p) => p.name === n)!.body;
-  // EIA-198 / IEC 60115-8 size codes, from memory (DOMAIN.md section 6): nominal L × W mm
+  // EIA-198 / IEC 60115-8 size codes, from memory: nominal L × W mm
   test.each([
     ['R0402', 1.0, 0.5], ['C0402', 1.0, 0.5],
     ['R0603', 1.6, 0.8], ['C0603', 1.6, 0.8], ['LED0603', 1.6, 0.8],

@@ -8,7 +8,7 @@ import { EngineInputError } from '../../../shared/core';
 const W = 60, H = 40;
 const A = { anchorX: 5, anchorY: 7 };
 
-describe('step-and-repeat at right angles (DOMAIN.md section 3 table)', () => {
+describe('step-and-repeat at right angles (shared/README.md, "Step-and-repeat" table)', () => {
   // board 60 × 40, anchor A = (5, 7), point (u, v) = (10, 3)
   test.each([
     // φ = 0: A + (u, v) = (5 + 10, 7 + 3) = (15, 10)
@@ -62,7 +62,7 @@ describe('step-and-repeat at right angles (DOMAIN.md section 3 table)', () => {
   });
 });
 
-describe('bottom side flips (DOMAIN.md section 2)', () => {
+describe('bottom side flips (shared/README.md, "Rotation and the bottom side")', () => {
   // panel 140 × 100, top-view panel position P = (30, 20), φ = 90, θb = 10
   test('vertical flip: (PW − P.x, P.y), rotation θb − φ', () => {
     const p = applyAffine(sideAffine('bottom', 'vertical', 140, 100), 30, 20);

@@ -45,7 +45,7 @@ describe('runJob: panel frame', () => {
     expect(r.boardsPlaced).toBe(3);
     expect(r.boards.map((b) => [b.number, b.skipped])).toEqual([[1, false], [2, false], [3, false], [4, true]]);
   });
-  test('hand-worked positions (DOMAIN.md section 3)', () => {
+  test('hand-worked positions (shared/README.md, "Step-and-repeat")', () => {
     // R1 board 1 (φ 0, A = (5, 5)): (5 + 10, 5 + 3) = (15, 8), rotation 30
     expect([rec[0].x, rec[0].y, rec[0].rotation]).toEqual([15, 8, 30]);
     // R1 board 2 (φ 180, A = (70, 5)): A + (W − u, H − v) = (70 + 60 − 10, 5 + 40 − 3) = (120, 42), rotation 30 + 180 = 210

@@ -38,7 +38,7 @@ describe('SHA-256 (Web Crypto)', () => {
   });
 });
 
-describe('CSV writer: exactly PLACEMENT-LIST.md', () => {
+describe('CSV writer: exactly shared/placement-list/README.md', () => {
   test('weather-station top: metadata order, header, rows, checksum', async () => {
     const r = runSample('weather-station', 'top');
     const { text, sha256 } = await writePlacementListCsv(r, { generated: GEN });

@@ -1,5 +1,6 @@
-// Hand-worked cases of the findings engine, each with its arithmetic beside it (DOMAIN.md section
-// 11 and CLI.md "Check": touching is not overlapping below 1e-6 mm; boundaries are inside).
+// Hand-worked cases of the findings engine, each with its arithmetic beside it (shared/README.md
+// "Findings" and shared/verify/README.md: touching is not overlapping below 1e-6 mm; boundaries
+// are inside).
 import { describe, expect, test } from 'vitest';
 import { verify } from '../../../shared/verify';
 import { makeVerifyInput, rectQuad, type PartSpec, type LayoutSpec } from '../../../shared/verify/build';

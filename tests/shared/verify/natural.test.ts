@@ -1,4 +1,4 @@
-// Natural order of references (CLI.md: "R2 before R10") and of "BOARD:REF" strings.
+// Natural order of references ("R2 before R10", shared/README.md "Findings") and of "BOARD:REF" strings.
 import { describe, expect, test } from 'vitest';
 import { compareBoardRefs, compareRefs } from '../../../shared/verify/natural';
 

@@ -14,7 +14,7 @@ interface Pkg {
   weight: number;
 }
 
-// body sizes after DOMAIN.md section 6 (chips, SOT-23, SOIC-8); the tall parts are invented
+// body sizes after shared/README.md, "Check values and their sources" (chips, SOT-23, SOIC-8); the tall parts are invented
 const PACKAGES: Pkg[] = [
   { name: 'C0402', L: 1.0, W: 0.5, H: 0.35, holder: 2.5, weight: 38 },
   { name: 'C0603', L: 1.6, W: 0.8, H: 0.45, holder: 2.5, weight: 24 },

@@ -31,7 +31,7 @@ const ok = (v: number) => Number.isFinite(v);
 const fmt = (v: number) => `${fixed(v)} mm`;
 
 /**
- * The package to scale in its zero orientation (DOMAIN.md section 6: body length along X, pin 1
+ * The package to scale in its zero orientation (shared/README.md, "Check values and their sources": body length along X, pin 1
  * or the cathode on the left, ICs with pin 1 at the upper left), seen from the top: body, courtyard,
  * pin-1 mark, the placement origin, the body offset and an arrow for zero orientation turned by the
  * rotation offset. Draws what the form holds; computes nothing that matters elsewhere.

@@ -90,7 +90,7 @@ export function RunFileCard({ entry }: { entry: RunFileEntry }) {
   );
 }
 
-/** What each checksum covers (PLACEMENT-LIST.md): a CSV's is the file's own `# sha256:` line. */
+/** What each checksum covers (shared/placement-list/README.md): a CSV's is the file's own `# sha256:` line. */
 export function ChecksumNote() {
   return (
     <p className="mt-2 text-xs text-ink-500">

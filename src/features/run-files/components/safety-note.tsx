@@ -1,4 +1,4 @@
-/** The short caution wherever run files are handed to the line (PRODUCT.md, Safety). Our own words. */
+/** The short caution wherever run files are handed to the line (README.md, "Safety"). Our own words. */
 export function SafetyNote({ className = '' }: { className?: string }) {
   return (
     <aside aria-label="Safety" className={`safety-note rounded border border-sev-warning/60 bg-sev-warning/10 px-4 py-3 text-sm text-ink-800 ${className}`}>
