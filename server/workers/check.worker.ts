@@ -1,6 +1,7 @@
 // Worker thread (piscina): checks a revision off the main thread, so the API stays responsive
 // while a large panel is verified. The engine's one entry does the work (engine.ts → runRevision).
 import { checkRevision, releaseRevision, type EngineInput } from '../modules/programs/engine';
+import { previewTask, readImportTask, type PreviewInput, type ReadImportInput } from '../modules/programs/import-task';
 
 export default function check(input: EngineInput) {
   return checkRevision(input);
@@ -14,4 +15,14 @@ export function warm() {
 /** The checks and the placement lists of a release from one run (piscina task `release`). */
 export function release({ input, generated }: { input: EngineInput; generated: string }) {
   return releaseRevision(input, generated);
+}
+
+/** An upload's import preview, every bad row up to a cap (piscina task `preview`). */
+export function preview(input: PreviewInput) {
+  return previewTask(input);
+}
+
+/** An upload read for saving, its import already as JSON text (piscina task `readImport`). */
+export function readImport(input: ReadImportInput) {
+  return readImportTask(input);
 }

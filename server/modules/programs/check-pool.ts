@@ -3,6 +3,10 @@ import { fileURLToPath } from 'node:url';
 import type { VerifyResult } from '../../../shared/verify';
 import { DomainError } from '../../lib/errors';
 import type { EngineInput, ReleaseOutput } from './engine';
+import { taskErrorToThrow, type ImportPreview, type PreviewInput, type ReadImport, type ReadImportInput, type TaskOutcome } from './import-task';
+
+/** The longest an import preview or an import's reading may take (ms) before it is stopped. */
+export const IMPORT_TIME_LIMIT_MS = 60_000;
 
 const WORKER = fileURLToPath(new URL('../../workers/check.worker.ts', import.meta.url));
 
@@ -10,8 +14,14 @@ const WORKER = fileURLToPath(new URL('../../workers/check.worker.ts', import.met
 export class CheckPool {
   private pool: Piscina | null = null;
 
-  /** A check that takes longer than this is abandoned with a clear error (ms). */
-  constructor(private readonly timeoutMs = 5 * 60_000) {}
+  /**
+   * A check that takes longer than `timeoutMs` is abandoned with a clear error; reading an upload
+   * (preview or import) that takes longer than `importTimeoutMs` is stopped (its thread ends).
+   */
+  constructor(
+    private readonly timeoutMs = 5 * 60_000,
+    public importTimeoutMs = IMPORT_TIME_LIMIT_MS,
+  ) {}
 
   private get instance(): Piscina {
     if (!this.pool) {
@@ -37,6 +47,37 @@ export class CheckPool {
   /** The checks and the placement lists of a release, from one run. */
   release(input: EngineInput, generated: string): Promise<ReleaseOutput> {
     return this.task('release', { input, generated });
+  }
+
+  /** An upload's import preview, read in a worker thread within the import time limit. */
+  preview(input: PreviewInput): Promise<ImportPreview> {
+    return this.importTask('preview', input);
+  }
+
+  /** An upload read for saving (EngineInputError at its first bad row), within the time limit. */
+  readImport(input: ReadImportInput): Promise<ReadImport> {
+    return this.importTask('readImport', input);
+  }
+
+  private async importTask<T>(name: string, input: PreviewInput | ReadImportInput): Promise<T> {
+    const limitMs = this.importTimeoutMs;
+    let out: TaskOutcome<T>;
+    try {
+      out = await this.instance.run(input, { name, signal: AbortSignal.timeout(limitMs) });
+    } catch (err) {
+      if ((err as Error).name === 'AbortError' || (err as Error).name === 'TimeoutError') {
+        const limit = `${Number((limitMs / 1000).toFixed(3))} s`;
+        throw new DomainError(
+          422,
+          'File took too long to read',
+          `Reading ${input.fileName} did not finish within ${limit}, the limit for reading one upload. Check that it is a centroid file (one row per part); split a very large file, or try again when the server is less busy.`,
+          [{ path: 'file', message: `Not read within ${limit}` }],
+        );
+      }
+      throw err;
+    }
+    if (!out.ok) throw taskErrorToThrow(out.error);
+    return out.value;
   }
 
   private async task<T>(name: string, payload: unknown): Promise<T> {

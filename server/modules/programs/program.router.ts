@@ -102,7 +102,7 @@ export function registerProgramRoutes(api: ApiRoutes, programs: ProgramService, 
   api.post('/revisions/:id/centroid/preview', eng, validate(uuidParamSchema, 'params'), uploadFields, async (req, res) => {
     await programs.getRevisionEntity(id(req));
     const opts = (req as Request & { importOptions: never }).importOptions;
-    res.json(programs.previewImport(req.file!.buffer, req.file!.originalname, opts));
+    res.json(await programs.previewImport(req.file!.buffer, req.file!.originalname, opts));
   });
 
   api.post('/revisions/:id/centroid', eng, validate(uuidParamSchema, 'params'), uploadFields, async (req, res) => {

@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import { Assigner, unmatchedFootprints } from '../../../shared/library';
 import type { ImportResult, Side } from '../../../shared/core';
@@ -27,7 +26,8 @@ import type { Mailer } from '../mail/mailer';
 import type { UserService } from '../users/user.service';
 import type { CheckPool } from './check-pool';
 import { assertIndependentReviewer, contributorList, contributorsOf, isContributor, recordContribution } from './contributors';
-import { CENTROID_NAME_FALLBACK, importFile, previewFile, runEngine, type EngineInput } from './engine';
+import { CENTROID_NAME_FALLBACK, runEngine, type EngineInput } from './engine';
+import type { ImportPreview, ReadImport } from './import-task';
 import { buildReviewSummary, revisionChanges } from './review-summary';
 
 /** Where programs get the shared package library (the library module provides it). */
@@ -64,10 +64,6 @@ function nextLabel(label: string): string {
     i--;
   }
   return 'A' + chars.join('');
-}
-
-function sha256(bytes: Buffer | string): string {
-  return createHash('sha256').update(bytes).digest('hex');
 }
 
 export interface ServiceUser {
@@ -171,7 +167,12 @@ export class ProgramService {
   }
 
   async getRevision(id: string, user: ServiceUser): Promise<RevisionDetail> {
-    const r = await this.getRevisionEntity(id);
+    // Neither the file nor the import is loaded: the import's summary is counted by PostgreSQL
+    // (importSummary), so a 200,000-row revision is not parsed on the event loop to be shown.
+    const repo = this.ds.getRepository(ProgramRevision);
+    const select = Object.fromEntries(repo.metadata.columns.filter((c) => c.propertyName !== 'imported' && c.propertyName !== 'centroidBytes').map((c) => [c.propertyName, true]));
+    const r = await repo.findOne({ where: { id }, select });
+    if (!r) throw new NotFoundError('The revision');
     const program = await this.ds.getRepository(Program).findOneByOrFail({ id: r.programId });
     const [waivers, comments, files] = await Promise.all([
       this.ds.getRepository(RevisionWaiver).find({ where: { revisionId: id }, order: { at: 'ASC' } }),
@@ -181,7 +182,7 @@ export class ProgramService {
     const sizes: { id: string; n: number }[] = files.length ? await this.ds.query(`SELECT id, octet_length(bytes) AS n FROM release_files WHERE revision_id = $1`, [id]) : [];
     const ref = await this.userRefs([r.authorId, r.reviewerId]);
     const open = await this.openErrorCounts([r.id]);
-    const imported = r.imported as unknown as ImportResult | null;
+    const imported = await this.importSummary(r.id);
     const isEngineer = user.roles.includes('engineer') || user.roles.includes('admin');
     const openRevision = await this.ds.getRepository(ProgramRevision).exists({ where: { programId: r.programId, state: In(['draft', 'in-review']) } });
     return {
@@ -189,20 +190,7 @@ export class ProgramService {
       program: { id: program.id, name: program.name, product: program.product, board: program.board },
       settings: revisionSettingsSchema.parse(r.settings),
       centroidSha256: r.centroidSha256,
-      imported: imported
-        ? {
-            rows: imported.placements.length,
-            dnp: imported.placements.filter((p) => p.dnp).length,
-            top: imported.placements.filter((p) => !p.dnp && p.side === 'top').length,
-            bottom: imported.placements.filter((p) => !p.dnp && p.side === 'bottom').length,
-            units: imported.units,
-            columns: imported.columns as Record<string, string>,
-            headers: imported.headers,
-            dialect: imported.dialect as unknown as Record<string, unknown>,
-            warnings: imported.warnings.map((w) => ({ line: w.line, message: w.message })),
-            extent: placedExtent(imported.placements),
-          }
-        : null,
+      imported,
       overrides: r.overrides as Record<string, Override>,
       findings: (r.findings as Finding[] | null) ?? null,
       findingsSummary: (r.findingsSummary as RevisionDetail['findingsSummary']) ?? null,
@@ -220,6 +208,35 @@ export class ProgramService {
         withdraw: isEngineer && (r.state === 'draft' || r.state === 'in-review'),
         newRevision: isEngineer && r.state === 'released' && !openRevision,
       },
+    };
+  }
+
+  /** What the revision page shows of the import (counts, mapping, extent), read in PostgreSQL. */
+  private async importSummary(revisionId: string): Promise<RevisionDetail['imported']> {
+    const placed = `NOT coalesce((p->>'dnp')::boolean, false)`;
+    const rows: { meta: Pick<ImportResult, 'units' | 'columns' | 'headers' | 'dialect' | 'warnings'>; n: Record<string, number | null> }[] = await this.ds.query(
+      `SELECT jsonb_build_object('units', i->'units', 'columns', i->'columns', 'headers', i->'headers', 'dialect', i->'dialect', 'warnings', i->'warnings') AS meta,
+         (SELECT json_build_object('rows', count(*), 'dnp', count(*) FILTER (WHERE NOT ${placed}),
+            'top', count(*) FILTER (WHERE ${placed} AND p->>'side' = 'top'), 'bottom', count(*) FILTER (WHERE ${placed} AND p->>'side' = 'bottom'),
+            'minX', min((p->>'x')::float8) FILTER (WHERE ${placed}), 'maxX', max((p->>'x')::float8) FILTER (WHERE ${placed}),
+            'minY', min((p->>'y')::float8) FILTER (WHERE ${placed}), 'maxY', max((p->>'y')::float8) FILTER (WHERE ${placed}))
+          FROM jsonb_array_elements(i->'placements') p) AS n
+       FROM (SELECT imported AS i FROM program_revisions WHERE id = $1) s WHERE i IS NOT NULL`,
+      [revisionId],
+    );
+    if (rows.length === 0) return null;
+    const { meta, n } = rows[0];
+    return {
+      rows: n.rows ?? 0,
+      dnp: n.dnp ?? 0,
+      top: n.top ?? 0,
+      bottom: n.bottom ?? 0,
+      units: meta.units,
+      columns: meta.columns as Record<string, string>,
+      headers: meta.headers,
+      dialect: meta.dialect as unknown as Record<string, unknown>,
+      warnings: meta.warnings.map((w) => ({ line: w.line, message: w.message })),
+      extent: n.minX === null || n.minX === undefined ? null : { minX: n.minX, minY: n.minY!, maxX: n.maxX!, maxY: n.maxY! },
     };
   }
 
@@ -290,63 +307,48 @@ export class ProgramService {
 
   /**
    * Reads a file without saving: what the import would give (dialect, mapping, first rows) and
-   * every row error with its line, from one pass of the engine's collecting import. A file-wide
-   * problem (no units, a missing column, no rows) ends the list; alone, it is the answer's error.
+   * every row error with its line, from one pass of the engine's collecting import, in a worker
+   * thread within the import time limit (check-pool.ts). A file-wide problem (no units, a missing
+   * column, no rows) ends the list; alone, it is the answer's error.
    */
-  previewImport(bytes: Buffer, fileName: string, importOptions: RevisionSettings['import']) {
-    const text = decodeText(bytes, fileName);
-    const { imported, rowErrors: bad, fileError, truncated } = previewFile(text, { import: importOptions }, fileName, PREVIEW_ERROR_LIMIT);
-    if (fileError && bad.length === 0) throw fileError;
-    const rowErrors = bad.map((e) => ({ line: e.line ?? 0, column: e.column ?? null, message: e.detail }));
-    if (fileError && rowErrors.length < PREVIEW_ERROR_LIMIT) rowErrors.push({ line: fileError.line ?? 0, column: fileError.column ?? null, message: fileError.detail });
-    if (!imported) {
-      return { fileName, bytes: bytes.length, sha256: sha256(bytes), units: null, dialect: null, headers: [], columns: {}, warnings: [], rows: 0, first: [], rowErrors, truncated };
-    }
-    return {
-      rowErrors,
-      truncated,
-      fileName,
-      bytes: bytes.length,
-      sha256: sha256(bytes),
-      units: imported.units,
-      dialect: imported.dialect,
-      headers: imported.headers,
-      columns: imported.columns,
-      warnings: imported.warnings,
-      rows: imported.placements.length,
-      first: imported.placements.slice(0, 50),
-    };
+  previewImport(bytes: Buffer, fileName: string, importOptions: RevisionSettings['import']): Promise<ImportPreview> {
+    return this.deps.checks.preview({ bytes, fileName, importOptions, limit: PREVIEW_ERROR_LIMIT });
   }
 
-  /** Stores the file and its placements in one transaction; a bad file changes nothing. */
+  /**
+   * Stores the file and its placements in one transaction; a bad file changes nothing. The file
+   * is read in a worker thread (parsing, the import's JSON text, the digest, unmatched
+   * footprints), and the import is written as that text in one statement, so neither reading nor
+   * writing a 200,000-row file holds the event loop. Nothing large is loaded here: the revision
+   * is read for its state, version and overrides only.
+   */
   async commitImport(revisionId: string, bytes: Buffer, fileName: string, importOptions: RevisionSettings['import'], version: number, user: ServiceUser, ip: string | null) {
-    const text = decodeText(bytes, fileName);
-    const imported = importFile(text, { import: importOptions }, fileName);
+    const light = { id: true, programId: true, label: true, state: true, version: true, settings: true, overrides: true } as const;
+    const before = await this.ds.getRepository(ProgramRevision).findOne({ where: { id: revisionId }, select: light });
+    if (!before) throw new NotFoundError('The revision');
+    this.assertEditable(before, 'given a new centroid file');
+    this.assertVersion(before, version);
     const library = await this.deps.library.getLibraryFile();
+    const read = await this.deps.checks.readImport({ bytes, fileName, importOptions, overrides: before.overrides as Record<string, Override>, library });
     await this.ds.transaction(async (m) => {
-      const r = await this.getRevisionEntity(revisionId, m, true);
+      const r = await m.getRepository(ProgramRevision).findOne({ where: { id: revisionId }, select: light, lock: { mode: 'pessimistic_write' } });
+      if (!r) throw new NotFoundError('The revision');
       this.assertEditable(r, 'given a new centroid file');
+      // The same version as when the file was read: the overrides it filtered are still these.
       this.assertVersion(r, version);
       const settings = revisionSettingsSchema.parse({ ...r.settings, import: importOptions });
-      r.settings = settings as never;
-      r.centroidName = fileName;
-      r.centroidBytes = bytes;
-      r.centroidSha256 = sha256(bytes);
-      r.imported = imported as never;
-      r.findings = null;
-      r.findingsSummary = null;
-      r.checkedAt = null;
-      // Overrides of parts no longer in the file are dropped.
-      const refs = new Set(imported.placements.map((p) => p.ref));
-      r.overrides = Object.fromEntries(Object.entries(r.overrides).filter(([ref]) => refs.has(ref)));
-      await m.getRepository(ProgramRevision).save(r);
+      await m.query(
+        `UPDATE program_revisions SET settings = $2::jsonb, centroid_name = $3, centroid_bytes = $4, centroid_sha256 = $5, imported = $6::jsonb,
+           placement_count = $7, overrides = $8::jsonb, findings = NULL, findings_summary = NULL, checked_at = NULL, version = version + 1, updated_at = now()
+         WHERE id = $1`,
+        [r.id, JSON.stringify(settings), fileName, bytes, read.sha256, read.importedJson, read.placed, JSON.stringify(read.overrides)],
+      );
       const program = await m.getRepository(Program).findOneByOrFail({ id: r.programId });
-      if (this.deps.library.recordUnmatchedFootprints && library) {
-        const unmatched = unmatchedFootprints(imported.placements, library, r.overrides as Record<string, Override>);
-        if (unmatched.length) await this.deps.library.recordUnmatchedFootprints(m, `${program.name} ${r.label}`, unmatched);
+      if (this.deps.library.recordUnmatchedFootprints && library && read.unmatched.length) {
+        await this.deps.library.recordUnmatchedFootprints(m, `${program.name} ${r.label}`, read.unmatched);
       }
       await recordContribution(m, r.id, user, 'import');
-      await this.deps.audit.record(user, 'revision.import', `${program.name} ${r.label}`, { file: fileName, rows: imported.placements.length, sha256: r.centroidSha256 }, ip, m);
+      await this.deps.audit.record(user, 'revision.import', `${program.name} ${r.label}`, { file: fileName, rows: read.rows, sha256: read.sha256 }, ip, m);
     });
   }
 
@@ -356,15 +358,20 @@ export class ProgramService {
       this.assertEditable(r);
       this.assertVersion(r, version);
       const importChanged = JSON.stringify(settings.import) !== JSON.stringify((r.settings as RevisionSettings).import ?? {});
+      let reread: ReadImport | null = null;
       if (importChanged && r.centroidBytes) {
-        // New import options re-read the stored file; a file the options cannot read is an error.
-        r.imported = importFile(decodeText(r.centroidBytes, r.centroidName ?? CENTROID_NAME_FALLBACK), { import: settings.import }, r.centroidName ?? CENTROID_NAME_FALLBACK) as never;
+        // New import options re-read the stored file (in a worker thread, as an upload); a file
+        // the options cannot read is an error.
+        const fileName = r.centroidName ?? CENTROID_NAME_FALLBACK;
+        reread = await this.deps.checks.readImport({ bytes: r.centroidBytes, fileName, importOptions: settings.import, overrides: {}, library: null });
       }
       r.settings = settings as never;
       r.findings = null;
       r.findingsSummary = null;
       r.checkedAt = null;
       await m.getRepository(ProgramRevision).save(r);
+      // the import as its JSON text, written as it is (the version was counted by the save)
+      if (reread) await m.query('UPDATE program_revisions SET imported = $2::jsonb, placement_count = $3 WHERE id = $1', [r.id, reread.importedJson, reread.placed]);
       await recordContribution(m, r.id, user, 'settings');
       await this.deps.audit.record(user, 'revision.settings', await this.label(r, m), {}, ip, m);
     });
@@ -661,28 +668,7 @@ export class ProgramService {
 
 /** Centroid files are text: UTF-8 (a BOM is fine) or Latin-1 as older CAD tools write. */
 /** The placed (not do-not-place) parts' centres: their bounding box in design coordinates (mm). */
-function placedExtent(placements: ImportResult['placements']): { minX: number; minY: number; maxX: number; maxY: number } | null {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (const p of placements) {
-    if (p.dnp) continue;
-    if (p.x < minX) minX = p.x;
-    if (p.x > maxX) maxX = p.x;
-    if (p.y < minY) minY = p.y;
-    if (p.y > maxY) maxY = p.y;
-  }
-  return minX <= maxX ? { minX, minY, maxX, maxY } : null;
-}
 
-export function decodeText(bytes: Buffer, fileName: string): string {
-  if (bytes.length === 0) throw new BadRequestError(`${fileName} is empty.`, [{ path: 'file', message: 'Empty file' }]);
-  const probe = bytes.subarray(0, 65536);
-  if (probe.includes(0)) throw new BadRequestError(`${fileName} is not a text file (it holds binary data). Export the centroid file as CSV or text.`, [{ path: 'file', message: 'Not a text file' }]);
-  try {
-    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-  } catch {
-    return new TextDecoder('latin1').decode(bytes);
-  }
-}
 
 /** Waivers as sent, each with the number of `findings` it covers. */
 export function waiverDtos(waivers: readonly RevisionWaiver[], findings: readonly Finding[]): WaiverDto[] {
