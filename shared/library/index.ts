@@ -3,6 +3,7 @@
 import type { LibraryFile, LibraryNozzle, LibraryPackage, LibraryVisionPreset } from '../schemas/library-file.schema';
 import type { PartOverride } from '../schemas/job.schema';
 
+/** Courtyard excess when a package gives none, mm: IPC-7351B density level B, from memory. */
 export const DEFAULT_COURTYARD = 0.25;
 
 /**

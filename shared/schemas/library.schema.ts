@@ -3,6 +3,7 @@
 // Shared by the server (validate) and the client (forms, response parsing).
 import { z } from 'zod';
 import { lengthText } from '../core';
+import { DEFAULT_COURTYARD } from '../library';
 
 export const PACKAGE_FAMILIES = ['chip', 'MELF', 'SOD', 'SOT', 'SOIC', 'SSOP/TSSOP', 'QFN/DFN', 'QFP', 'BGA', 'electrolytic', 'crystal', 'connector', 'other'] as const;
 export type PackageFamily = (typeof PACKAGE_FAMILIES)[number];
@@ -23,7 +24,7 @@ export const VISION_METHOD_LABELS: Record<VisionMethod, string> = {
 export const LIGHTINGS = ['top', 'side', 'both'] as const;
 export type Lighting = (typeof LIGHTINGS)[number];
 /** IPC-7351B density level B courtyard excess, mm (from memory). */
-export const DEFAULT_COURTYARD_MM = 0.25;
+export const DEFAULT_COURTYARD_MM = DEFAULT_COURTYARD; // one value: the engine's (shared/library)
 
 const EPS = 1e-9;
 

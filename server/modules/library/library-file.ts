@@ -1,4 +1,5 @@
-// The whole library ⇄ the library file (shared/schemas/README.md) ("placewright-library/1"). The export is canonical:
+// The whole library ⇄ the library file ("placewright-library/1", shared/schemas/README.md). The
+// export is canonical:
 // fixed key order, things sorted by their lower-cased name, optional keys left out when empty, so
 // export → import → export gives the same bytes.
 import type { LibraryAlias } from '../../db/entities/library-alias.entity';
@@ -21,6 +22,7 @@ import {
   type NozzleInput,
   type VisionPresetInput,
 } from '../../../shared/schemas/library.schema';
+import { libraryFileSchema } from '../../../shared/schemas/library-file.schema';
 import type { FieldError } from '../../lib/errors';
 
 export const LIBRARY_FORMAT = 'placewright-library/1';
@@ -136,13 +138,23 @@ function issuesOf(prefix: string, error: { issues: { path: PropertyKey[]; messag
 
 /**
  * Reads a library file into validated inputs; collects every problem with its path in the file
- * (`packages.3.tape.pitch`). References (nozzles, vision presets) are checked by the caller.
+ * (`packages.3.tape.pitch`). The file is read by the engine's one reader of the format
+ * (`libraryFileSchema`, shared/schemas/README.md "Library file"); the parsed packages, nozzles and
+ * presets (their extra keys kept: family, feeder, pads, notes, lighting, machines) are then mapped
+ * to the library's rows and checked against the library's own, stricter rules (EIA-481 tape
+ * pairs, families, preset methods). References (nozzles, vision presets) are checked by the caller.
  */
-export function parseLibraryFile(file: unknown): { value: ParsedLibrary; errors: FieldError[] } {
+export function parseLibraryFile(input: unknown): { value: ParsedLibrary; errors: FieldError[] } {
   const errors: FieldError[] = [];
   const value: ParsedLibrary = { packages: [], nozzles: [], presets: [], machines: [] };
-  if (!isObj(file)) return { value, errors: [{ path: '(root)', message: 'A library file is a JSON object' }] };
-  if (file.format !== LIBRARY_FORMAT) errors.push({ path: 'format', message: `Expected "${LIBRARY_FORMAT}"` });
+  if (!isObj(input)) return { value, errors: [{ path: '(root)', message: 'A library file is a JSON object' }] };
+  const read = libraryFileSchema.safeParse(input);
+  if (!read.success) {
+    for (const i of read.error.issues) errors.push({ path: i.path.length ? i.path.map(String).join('.') : '(root)', message: i.path[0] === 'format' ? `Expected "${LIBRARY_FORMAT}"` : i.message });
+  }
+  // the parsed file when it reads (defaults filled in); else the raw one, so that the library's own
+  // rules still report every problem in one answer
+  const file: Record<string, unknown> = read.success ? (read.data as Record<string, unknown>) : input;
   const list = (key: string, required: boolean): unknown[] => {
     const v = file[key];
     if (v === undefined && !required) return [];
@@ -226,5 +238,7 @@ export function parseLibraryFile(file: unknown): { value: ParsedLibrary; errors:
     else errors.push(...issuesOf(at, r.error));
   });
 
-  return { value, errors };
+  // one problem per place: the format reader's message first
+  const seen = new Set<string>();
+  return { value, errors: errors.filter((e) => (seen.has(e.path) ? false : (seen.add(e.path), true))) };
 }
