@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, useRef } from 'react';
 import { toast } from 'sonner';
 import type { RunResult, Side } from '../../../../shared/core';
 import type { RevisionDetail, Underlay } from '../../../../shared/schemas/program.schema';
@@ -21,8 +21,10 @@ function readDataUrl(file: File): Promise<string> {
  */
 export function RevisionCanvas({ r, height = 560, showFinding }: { r: RevisionDetail; height?: number; showFinding?: { key: string; seq: number } | null }) {
   const hasBottom = !!r.imported && r.imported.bottom > 0;
-  const top = useRun(r.id, 'top', r.version);
-  const bottom = useRun(r.id, 'bottom', r.version, hasBottom);
+  // A new version (a check, a waiver, a comment) keeps the drawing on screen while the engine runs
+  // again: no loading bar in its place, so the page neither jumps nor rebuilds the canvas twice.
+  const top = useRun(r.id, 'top', r.version, true, true);
+  const bottom = useRun(r.id, 'bottom', r.version, hasBottom, true);
   const underlays = useUnderlays(r.id);
   const saveUnderlay = useSaveUnderlay(r.id);
   const addComment = useAddComment(r.id);
@@ -54,7 +56,12 @@ export function RevisionCanvas({ r, height = 560, showFinding }: { r: RevisionDe
     return out;
   }, [underlays.data]);
 
-  if (top.isPending || (hasBottom && bottom.isPending)) return <ProgressBar label="Drawing the panel" />;
+  // placeholder runs are only this revision's earlier version, never another revision's
+  const shownFor = useRef(r.id);
+  if (!top.isPlaceholderData && top.data) shownFor.current = r.id;
+  const otherRevision = top.isPlaceholderData && shownFor.current !== r.id;
+
+  if (top.isPending || (hasBottom && bottom.isPending) || otherRevision) return <ProgressBar label="Drawing the panel" />;
   if (top.isError) return <ErrorPanel error={top.error} />;
 
   return (
