@@ -49,22 +49,29 @@ export class CheckPool {
     return this.task('release', { input, generated });
   }
 
-  /** An upload's import preview, read in a worker thread within the import time limit. */
-  preview(input: PreviewInput): Promise<ImportPreview> {
-    return this.importTask('preview', input);
+  /**
+   * An upload's import preview, read in a worker thread within the import time limit. `cancel`
+   * (the client went away) stops the reading too.
+   */
+  preview(input: PreviewInput, cancel?: AbortSignal): Promise<ImportPreview> {
+    return this.importTask('preview', input, cancel);
   }
 
   /** An upload read for saving (EngineInputError at its first bad row), within the time limit. */
-  readImport(input: ReadImportInput): Promise<ReadImport> {
-    return this.importTask('readImport', input);
+  readImport(input: ReadImportInput, cancel?: AbortSignal): Promise<ReadImport> {
+    return this.importTask('readImport', input, cancel);
   }
 
-  private async importTask<T>(name: string, input: PreviewInput | ReadImportInput): Promise<T> {
+  private async importTask<T>(name: string, input: PreviewInput | ReadImportInput, cancel?: AbortSignal): Promise<T> {
     const limitMs = this.importTimeoutMs;
+    const timeout = AbortSignal.timeout(limitMs);
     let out: TaskOutcome<T>;
     try {
-      out = await this.instance.run(input, { name, signal: AbortSignal.timeout(limitMs) });
+      out = await this.instance.run(input, { name, signal: cancel ? AbortSignal.any([timeout, cancel]) : timeout });
     } catch (err) {
+      if (cancel?.aborted && !timeout.aborted) {
+        throw new DomainError(400, 'Upload abandoned', `Reading ${input.fileName} was stopped: the request was closed before the answer.`);
+      }
       if ((err as Error).name === 'AbortError' || (err as Error).name === 'TimeoutError') {
         const limit = `${Number((limitMs / 1000).toFixed(3))} s`;
         throw new DomainError(

@@ -311,8 +311,8 @@ export class ProgramService {
    * thread within the import time limit (check-pool.ts). A file-wide problem (no units, a missing
    * column, no rows) ends the list; alone, it is the answer's error.
    */
-  previewImport(bytes: Buffer, fileName: string, importOptions: RevisionSettings['import']): Promise<ImportPreview> {
-    return this.deps.checks.preview({ bytes, fileName, importOptions, limit: PREVIEW_ERROR_LIMIT });
+  previewImport(bytes: Buffer, fileName: string, importOptions: RevisionSettings['import'], cancel?: AbortSignal): Promise<ImportPreview> {
+    return this.deps.checks.preview({ bytes, fileName, importOptions, limit: PREVIEW_ERROR_LIMIT }, cancel);
   }
 
   /**
