@@ -3,7 +3,7 @@
 // Pure (no database), so the check worker thread imports it too.
 import { importCentroid, importCentroidCollecting, type CollectedImport } from '../../../shared/centroid';
 import { runRevision, type RevisionRun, type SideSelection } from '../../../shared/engine';
-import type { ImportResult } from '../../../shared/core';
+import { ENGINE_VERSION, type ImportResult } from '../../../shared/core';
 import { writePlacementListCsv, writePlacementListJson } from '../../../shared/placement-list';
 import type { VerifyResult } from '../../../shared/verify';
 import { jobSchema, type Job } from '../../../shared/schemas/job.schema';
@@ -38,9 +38,18 @@ function importOptions(settings: Pick<RevisionSettings, 'import'>, fileName: str
   return { file: fileName, units: settings.import.units, unitsSource: settings.import.units ? ('job' as const) : undefined, bottomRotation: settings.import.bottomRotation, map: settings.import.map };
 }
 
-/** Reads a centroid file with the revision's import options. Throws EngineInputError. */
-export function importFile(text: string, settings: Pick<RevisionSettings, 'import'>, fileName: string): ImportResult {
-  return importCentroid(text, importOptions(settings, fileName));
+/** A derived import as stored: stamped with the engine version that made it. */
+export type StampedImport = ImportResult & { engineVersion: string };
+
+/**
+ * Reads a centroid file with the revision's import options, stamped with the engine version (a
+ * stored import of another version is read again from the file, see stored-import.ts). Throws
+ * EngineInputError.
+ */
+export function importFile(text: string, settings: Pick<RevisionSettings, 'import'>, fileName: string): StampedImport {
+  const imported = importCentroid(text, importOptions(settings, fileName)) as StampedImport;
+  imported.engineVersion = ENGINE_VERSION;
+  return imported;
 }
 
 /** Reads a centroid file in one pass, listing every bad row (at most `limit`). */

@@ -27,6 +27,7 @@ import type { UserService } from '../users/user.service';
 import type { CheckPool } from './check-pool';
 import { assertIndependentReviewer, contributorList, contributorsOf, isContributor, recordContribution } from './contributors';
 import { CENTROID_NAME_FALLBACK, runEngine, type EngineInput } from './engine';
+import { readStoredImport } from './stored-import';
 import type { ImportPreview, ReadImport } from './import-task';
 import { buildReviewSummary, revisionChanges } from './review-summary';
 
@@ -403,11 +404,15 @@ export class ProgramService {
   }
 
   private async engineInput(r: ProgramRevision, manager?: EntityManager): Promise<EngineInput> {
-    const imported = r.imported as unknown as ImportResult | null;
-    if (!imported) throw new BadRequestError('No centroid file yet: import one in the Import stage.');
+    const settings = revisionSettingsSchema.parse(r.settings);
+    // read back through its schema; an import of another engine version is derived again and kept
+    const stored = readStoredImport({ imported: r.imported, centroidBytes: r.centroidBytes, centroidName: r.centroidName, settings });
+    if (!stored) throw new BadRequestError('No centroid file yet: import one in the Import stage.');
+    const { imported } = stored;
+    if (stored.rederived) await (manager ?? this.ds.manager).query('UPDATE program_revisions SET imported = $2::jsonb WHERE id = $1', [r.id, JSON.stringify(imported)]);
     const program = await (manager ?? this.ds.manager).getRepository(Program).findOneByOrFail({ id: r.programId });
     return {
-      settings: revisionSettingsSchema.parse(r.settings),
+      settings,
       imported,
       overrides: r.overrides as Record<string, Override>,
       library: await this.deps.library.getLibraryFile(manager),
