@@ -100,14 +100,13 @@ export function registerProgramRoutes(api: ApiRoutes, programs: ProgramService, 
   });
 
   api.post('/revisions/:id/centroid/preview', eng, validate(uuidParamSchema, 'params'), uploadFields, async (req, res) => {
-    await programs.getRevisionEntity(id(req));
     const opts = (req as Request & { importOptions: never }).importOptions;
     // A client that goes away (a closed page, a new file chosen) stops the reading in the worker.
     const gone = new AbortController();
     res.on('close', () => {
       if (!res.writableFinished) gone.abort();
     });
-    res.json(await programs.previewImport(req.file!.buffer, req.file!.originalname, opts, gone.signal));
+    res.json(await programs.previewImport(id(req), req.file!.buffer, req.file!.originalname, opts, gone.signal));
   });
 
   api.post('/revisions/:id/centroid', eng, validate(uuidParamSchema, 'params'), uploadFields, async (req, res) => {

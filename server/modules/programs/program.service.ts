@@ -312,7 +312,9 @@ export class ProgramService {
    * thread within the import time limit (check-pool.ts). A file-wide problem (no units, a missing
    * column, no rows) ends the list; alone, it is the answer's error.
    */
-  previewImport(bytes: Buffer, fileName: string, importOptions: RevisionSettings['import'], cancel?: AbortSignal): Promise<ImportPreview> {
+  async previewImport(revisionId: string, bytes: Buffer, fileName: string, importOptions: RevisionSettings['import'], cancel?: AbortSignal): Promise<ImportPreview> {
+    // Only whether the revision exists: its stored file and import are not loaded for a preview.
+    if (!(await this.ds.getRepository(ProgramRevision).exists({ where: { id: revisionId } }))) throw new NotFoundError('The revision');
     return this.deps.checks.preview({ bytes, fileName, importOptions, limit: PREVIEW_ERROR_LIMIT }, cancel);
   }
 
