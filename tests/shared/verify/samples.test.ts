@@ -69,6 +69,8 @@ const PLANTED: [Finding['kind'], Finding['severity'], string][] = [
   ['courtyard-overlap', 'warning', '2:C1,2:C2'],
   ['nozzle-shadow', 'warning', '1:C3,1:C4'],
   ['nozzle-shadow', 'warning', '2:C3,2:C4'],
+  ['nozzle-size', 'warning', '1:R4'],
+  ['nozzle-size', 'warning', '2:R4'],
 ];
 
 const brief = (f: Finding): [string, string, string] => [f.kind, f.severity, f.refs.length ? f.refs.join(',') : `boards ${f.boards.join(',')}`];
@@ -77,7 +79,7 @@ describe('samples/faulty', () => {
   test('finds exactly the planted faults, in report order', async () => {
     const { result } = await checkJob('samples/faulty/job.json');
     expect(result.findings.map(brief)).toEqual(PLANTED);
-    expect(result.summary).toMatchObject({ errors: 14, warnings: 4 });
+    expect(result.summary).toMatchObject({ errors: 14, warnings: 6 });
   });
 
   test('the planted measures come out as worked in the README', async () => {
@@ -132,7 +134,7 @@ describe('cli check', () => {
     const out = checkResultSchema.parse(JSON.parse(stdout));
     expect(out.findings.map(brief)).toEqual(PLANTED);
     expect(Object.keys(out.summary).sort()).toEqual(['errors', 'placements', 'seconds', 'warnings']);
-    expect(out.summary).toMatchObject({ errors: 14, warnings: 4, placements: 26 });
+    expect(out.summary).toMatchObject({ errors: 14, warnings: 6, placements: 26 });
   });
 
   test('clean job: exit 0; --side top counts the top placements only; --out writes the file', async () => {
