@@ -7,6 +7,7 @@ import {
   programSchema,
   revisionDetailSchema,
   revisionSummarySchema,
+  type RevisionDetail,
   waiverSchema,
   type CreateProgramInput,
   type Override,
@@ -58,13 +59,26 @@ export const useRun = (id: string, side: Side, version: number | undefined, enab
     placeholderData: keepPrevious ? (previous, previousQuery) => (previousQuery?.queryKey[3] === side ? previous : undefined) : undefined,
   });
 
-/** After any write, the revision (and everything computed from it) is read again. */
+/**
+ * After any write, the revision and what is read with it (review summary, underlays) are read
+ * again — the revision itself only when the write did not answer with it. Engine runs are keyed
+ * by the revision's version: a changed revision has a new version and new runs, an unchanged one
+ * keeps its runs (so a check does not run the engine twice more for the canvas).
+ */
 function useRevisionMutation<V>(id: string, fn: (v: V) => Promise<unknown>) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: fn,
-    onSettled: async () => {
-      await qc.invalidateQueries({ queryKey: revisionQueryOptions(id).queryKey });
+    onSettled: async (result) => {
+      const answered = !!result && typeof result === 'object' && (result as { id?: unknown }).id === id && 'settings' in result && 'state' in result;
+      if (answered) qc.setQueryData(revisionQueryOptions(id).queryKey, result as RevisionDetail);
+      await qc.invalidateQueries({
+        predicate: (q) => {
+          const k = q.queryKey;
+          if (k[0] !== 'revisions' || k[1] !== id) return false;
+          return k.length === 2 ? !answered : k[2] !== 'run';
+        },
+      });
       await qc.invalidateQueries({ queryKey: programsQueryOptions().queryKey });
     },
   });
