@@ -1,56 +1,45 @@
+// Programs and their revisions: reading them, creating them, and editing a draft (its centroid
+// file, settings, overrides, checks and canvas underlay). The review steps, waivers and review
+// notes are their own services (review.service.ts, waivers.service.ts) behind the same methods
+// here; the state table they follow is review-state.ts.
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { Assigner, unmatchedFootprints } from '../../../shared/library';
 import type { ImportResult, Side } from '../../../shared/core';
 import { runResultToJson, type RunResultJson } from '../../../shared/pipeline';
 import type { Finding } from '../../../shared/schemas/finding.schema';
-import type { LibraryFile } from '../../../shared/schemas/library-file.schema';
-import { everyBoardKey, everyBoardKeyOfKey, waiverLookup } from '../../../shared/review';
 import {
   revisionSettingsSchema,
   type CommentDto,
   type CreateProgramInput,
   type Override,
   type ProgramDto,
-  type ReleaseFileDto,
   type RevisionDetail,
   type ReviewSummaryDto,
   type RevisionSettings,
   type RevisionSummary,
   type WaiverDto,
 } from '../../../shared/schemas/program.schema';
-import { Program, ProgramRevision, ReleaseFile, RevisionComment, RevisionWaiver, type RevisionState } from '../../db/entities/program.entity';
-import { User } from '../../db/entities/user.entity';
+import { Program, ProgramRevision, ReleaseFile, RevisionComment, RevisionWaiver } from '../../db/entities/program.entity';
 import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
-import type { AuditService } from '../audit/audit.service';
-import type { Mailer } from '../mail/mailer';
-import type { UserService } from '../users/user.service';
-import type { CheckPool } from './check-pool';
-import { assertIndependentReviewer, contributorList, contributorsOf, isContributor, recordContribution } from './contributors';
+import { contributorList, isContributor, recordContribution } from './contributors';
 import { CENTROID_NAME_FALLBACK, runEngine, type EngineInput } from './engine';
 import { readStoredImport } from './stored-import';
 import type { ImportPreview, ReadImport } from './import-task';
-import { buildReviewSummary, revisionChanges } from './review-summary';
+import type { ProgramDeps } from './program-deps';
+import { SUMMARY_COLUMNS, commentDto, programDto, releaseFileDto, revisionSummary, waiverDtos } from './program-dto';
+import { loadRevision, revisionLabel, userRefs, type ServiceUser } from './revision-access';
+import { assertEditable, assertVersion, canTake, isEditable, notesOpen } from './review-state';
+import { ReviewService } from './review.service';
+import { WaiverService, type CommentInput } from './waivers.service';
 
-/** Where programs get the shared package library (the library module provides it). */
-export interface LibrarySource {
-  getLibraryFile(manager?: EntityManager): Promise<LibraryFile | null>;
-  recordUnmatchedFootprints?(manager: EntityManager, programLabel: string, items: { footprint: string; count: number }[]): Promise<void>;
-}
+export type { LibrarySource } from './program-deps';
+export type { ServiceUser } from './revision-access';
 
 export const UPLOAD_LIMIT_BYTES = 20 * 1024 * 1024;
 /** The import preview lists at most this many row errors. */
 export const PREVIEW_ERROR_LIMIT = 200;
 
-const EDITABLE: RevisionState[] = ['draft'];
-
 /** The most programs one page lists (GET /programs?limit=…). */
 export const PROGRAM_PAGE_MAX = 500;
-
-/** What lists and summaries show of a revision: never the file, the import, the findings or the underlay. */
-const SUMMARY_COLUMNS = {
-  id: true, programId: true, label: true, state: true, authorId: true, reviewerId: true, centroidName: true, placementCount: true,
-  checkedAt: true, findingsSummary: true, submittedAt: true, releasedAt: true, createdAt: true, updatedAt: true, version: true,
-} as const;
 
 function nextLabel(label: string): string {
   // A … Z, then AA, AB, … (as drawing revisions are usually lettered)
@@ -67,25 +56,22 @@ function nextLabel(label: string): string {
   return 'A' + chars.join('');
 }
 
-export interface ServiceUser {
-  id: string;
-  email: string;
-  roles: string[];
-}
-
 export class ProgramService {
   constructor(
     private readonly ds: DataSource,
-    private readonly deps: { audit: AuditService; mailer: Mailer; users: UserService; library: LibrarySource; checks: CheckPool; publicUrl: string },
-  ) {}
+    private readonly deps: ProgramDeps,
+  ) {
+    this.review = new ReviewService(ds, deps, (r) => this.engineInput(r));
+    this.waivers = new WaiverService(ds, deps);
+  }
+
+  private readonly review: ReviewService;
+  private readonly waivers: WaiverService;
 
   // ---- reading ------------------------------------------------------------------------------
 
-  private async userRefs(ids: (string | null)[]) {
-    const want = [...new Set(ids.filter((x): x is string => !!x))];
-    const users = want.length ? await this.ds.getRepository(User).findBy({ id: In(want) }) : [];
-    const map = new Map(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
-    return (id: string | null) => (id ? (map.get(id) ?? null) : null);
+  private userRefs(ids: (string | null)[]) {
+    return userRefs(this.ds.manager, ids);
   }
 
   /** Error findings neither fixed nor waived, per revision (counted in the database). */
@@ -104,30 +90,6 @@ export class ProgramService {
     return new Map(rows.map((x) => [x.id, x.n]));
   }
 
-  private summary(r: ProgramRevision, ref: (id: string | null) => { id: string; name: string; email: string } | null, open?: Map<string, number>): RevisionSummary {
-    const s = r.findingsSummary as { errors?: number; warnings?: number } | null;
-    return {
-      id: r.id,
-      programId: r.programId,
-      label: r.label,
-      state: r.state,
-      author: ref(r.authorId),
-      reviewer: ref(r.reviewerId),
-      centroidName: r.centroidName,
-      placements: r.placementCount,
-      checkedAt: r.checkedAt?.toISOString() ?? null,
-      errors: s?.errors ?? null,
-      warnings: s?.warnings ?? null,
-      // findings and their summary are stored and cleared together; lists load only the summary
-      openErrors: !s ? null : (open?.get(r.id) ?? s.errors ?? null),
-      submittedAt: r.submittedAt?.toISOString() ?? null,
-      releasedAt: r.releasedAt?.toISOString() ?? null,
-      createdAt: r.createdAt.toISOString(),
-      updatedAt: r.updatedAt.toISOString(),
-      version: r.version,
-    };
-  }
-
   /** One page of programs, most recently changed first, with the number of programs in all. */
   async listPrograms(page: { limit: number; offset: number } = { limit: PROGRAM_PAGE_MAX, offset: 0 }): Promise<{ items: ProgramDto[]; total: number }> {
     const [programs, total] = await this.ds.getRepository(Program).findAndCount({ order: { updatedAt: 'DESC', id: 'ASC' }, take: page.limit, skip: page.offset });
@@ -136,20 +98,7 @@ export class ProgramService {
       : [];
     const ref = await this.userRefs([...programs.map((p) => p.ownerId), ...revisions.flatMap((r) => [r.authorId, r.reviewerId])]);
     const open = await this.openErrorCounts(revisions.map((r) => r.id));
-    return { items: programs.map((p) => this.programDto(p, revisions.filter((r) => r.programId === p.id), ref, open)), total };
-  }
-
-  private programDto(p: Program, revs: ProgramRevision[], ref: (id: string | null) => { id: string; name: string; email: string } | null, open?: Map<string, number>): ProgramDto {
-    return {
-      id: p.id,
-      name: p.name,
-      product: p.product,
-      board: p.board,
-      owner: ref(p.ownerId),
-      createdAt: p.createdAt.toISOString(),
-      updatedAt: p.updatedAt.toISOString(),
-      revisions: revs.map((r) => this.summary(r, ref, open)),
-    };
+    return { items: programs.map((p) => programDto(p, revisions.filter((r) => r.programId === p.id), ref, open)), total };
   }
 
   async getProgram(id: string): Promise<ProgramDto> {
@@ -157,14 +106,11 @@ export class ProgramService {
     if (!p) throw new NotFoundError('The program');
     const revs = await this.ds.getRepository(ProgramRevision).find({ where: { programId: id }, order: { createdAt: 'ASC' }, select: SUMMARY_COLUMNS });
     const ref = await this.userRefs([p.ownerId, ...revs.flatMap((r) => [r.authorId, r.reviewerId])]);
-    return this.programDto(p, revs, ref, await this.openErrorCounts(revs.map((r) => r.id)));
+    return programDto(p, revs, ref, await this.openErrorCounts(revs.map((r) => r.id)));
   }
 
   async getRevisionEntity(id: string, manager?: EntityManager, lock = false): Promise<ProgramRevision> {
-    const repo = (manager ?? this.ds.manager).getRepository(ProgramRevision);
-    const r = await repo.findOne({ where: { id }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
-    if (!r) throw new NotFoundError('The revision');
-    return r;
+    return loadRevision(manager ?? this.ds.manager, id, lock);
   }
 
   async getRevision(id: string, user: ServiceUser): Promise<RevisionDetail> {
@@ -187,7 +133,7 @@ export class ProgramService {
     const isEngineer = user.roles.includes('engineer') || user.roles.includes('admin');
     const openRevision = await this.ds.getRepository(ProgramRevision).exists({ where: { programId: r.programId, state: In(['draft', 'in-review']) } });
     return {
-      ...this.summary(r, ref, open),
+      ...revisionSummary(r, ref, open),
       program: { id: program.id, name: program.name, product: program.product, board: program.board },
       settings: revisionSettingsSchema.parse(r.settings),
       centroidSha256: r.centroidSha256,
@@ -203,10 +149,10 @@ export class ProgramService {
       hasUnderlay: r.underlay !== null,
       contributors: await contributorList(this.ds.manager, r.id),
       can: {
-        edit: isEngineer && r.state === 'draft',
-        submit: isEngineer && r.state === 'draft',
-        review: isEngineer && r.state === 'in-review' && r.authorId !== user.id && !(await isContributor(this.ds.manager, r.id, user.id)),
-        withdraw: isEngineer && (r.state === 'draft' || r.state === 'in-review'),
+        edit: isEngineer && isEditable(r.state),
+        submit: isEngineer && canTake('submit', r.state),
+        review: isEngineer && canTake('approve', r.state) && r.authorId !== user.id && !(await isContributor(this.ds.manager, r.id, user.id)),
+        withdraw: isEngineer && canTake('withdraw', r.state),
         newRevision: isEngineer && r.state === 'released' && !openRevision,
       },
     };
@@ -243,19 +189,13 @@ export class ProgramService {
 
   // ---- writing ------------------------------------------------------------------------------
 
+  // the state table's rules (review-state.ts)
   private assertEditable(r: ProgramRevision, what = 'changed') {
-    if (r.state === 'released' || r.state === 'superseded') {
-      throw new ConflictError(`Revision ${r.label} is ${r.state} and cannot be ${what}. Start a new revision from it to make changes.`);
-    }
-    if (!EDITABLE.includes(r.state)) {
-      throw new ConflictError(`Revision ${r.label} is ${r.state === 'in-review' ? 'in review' : r.state}; only a draft can be ${what}.`);
-    }
+    assertEditable(r, what);
   }
 
   private assertVersion(r: ProgramRevision, version: number) {
-    if (r.version !== version) {
-      throw new ConflictError(`Revision ${r.label} was changed by someone else since you opened it (version ${version}, now ${r.version}). Reload to see their change, then make yours again.`);
-    }
+    assertVersion(r, version);
   }
 
   async createProgram(input: CreateProgramInput, user: ServiceUser, ip: string | null): Promise<ProgramDto> {
@@ -302,7 +242,7 @@ export class ProgramService {
       await recordContribution(m, r.id, user, 'create');
       await this.deps.audit.record(user, 'revision.create', `${program.name} ${label}`, { from: source.label }, ip, m);
       const ref = await this.userRefs([r.authorId]);
-      return this.summary(r, ref);
+      return revisionSummary(r, ref);
     });
   }
 
@@ -400,9 +340,8 @@ export class ProgramService {
     });
   }
 
-  private async label(r: ProgramRevision, m?: EntityManager) {
-    const p = await (m ?? this.ds.manager).getRepository(Program).findOneByOrFail({ id: r.programId });
-    return `${p.name} ${r.label}`;
+  private label(r: ProgramRevision, m?: EntityManager) {
+    return revisionLabel(m ?? this.ds.manager, r);
   }
 
   private async engineInput(r: ProgramRevision, manager?: EntityManager): Promise<EngineInput> {
@@ -448,219 +387,45 @@ export class ProgramService {
     });
   }
 
-  /**
-   * Waives one finding, or (scope 'every-board') the finding's kind and refs on every board: one
-   * decision that also covers boards added later. Waivers given before on single boards of that
-   * kind and refs are folded into it (the audit keeps their reasons).
-   */
-  async waive(revisionId: string, key: string, reason: string, user: ServiceUser, ip: string | null, scope: 'finding' | 'every-board' = 'finding'): Promise<WaiverDto> {
-    return this.ds.transaction(async (m) => {
-      const r = await this.getRevisionEntity(revisionId, m, true);
-      this.assertEditable(r, 'given waivers');
-      const findings = (r.findings as Finding[] | null) ?? [];
-      const finding = findings.find((f) => f.key === key);
-      if (!finding) throw new NotFoundError('That finding (run the checks again: it may be fixed)');
-      const repo = m.getRepository(RevisionWaiver);
-      const existing = await repo.findBy({ revisionId });
-      const covering = waiverLookup(existing)(finding);
-      const label = await this.label(r, m);
-      await recordContribution(m, r.id, user, 'waiver');
-      if (scope === 'finding') {
-        if (covering) throw new ConflictError(covering.scope === 'every-board' ? 'This finding is already waived on every board.' : 'This finding is already waived.');
-        const w = await repo.save(repo.create({ revisionId, findingKey: key, scope: 'finding', kind: finding.kind, reason, userId: user.id, userEmail: user.email }));
-        await this.deps.audit.record(user, 'finding.waive', label, { key, reason }, ip, m);
-        return waiverDtos([w], findings)[0];
-      }
-      const pattern = everyBoardKey(finding);
-      if (pattern === null) {
-        throw new BadRequestError(`This ${finding.kind} finding is not within one board (it involves ${finding.refs.length ? 'parts of several boards' : finding.boards.length ? 'whole boards' : 'the panel'}), so it does not repeat per board: waive it on its own.`, [{ path: 'scope', message: 'Only for findings within one board' }]);
-      }
-      if (existing.some((w) => w.scope === 'every-board' && w.findingKey === pattern)) throw new ConflictError('This finding is already waived on every board.');
-      const instances = findings.filter((f) => everyBoardKey(f) === pattern).length;
-      const folded = existing.filter((w) => w.scope !== 'every-board' && everyBoardKeyOfKey(w.findingKey) === pattern);
-      if (folded.length) await repo.delete({ id: In(folded.map((w) => w.id)) });
-      const w = await repo.save(repo.create({ revisionId, findingKey: pattern, scope: 'every-board', kind: finding.kind, reason, userId: user.id, userEmail: user.email }));
-      await this.deps.audit.record(
-        user,
-        'finding.waive',
-        label,
-        { key: pattern, scope: 'every-board', reason, covers: instances, replaced: folded.map((x) => ({ key: x.findingKey, reason: x.reason, by: x.userEmail })) },
-        ip,
-        m,
-      );
-      return waiverDtos([w], findings)[0];
-    });
+  // ---- review steps and summary (review.service.ts), waivers and notes (waivers.service.ts) ----
+
+  /** Waives one finding, or (scope 'every-board') the finding's kind and refs on every board. */
+  waive(revisionId: string, key: string, reason: string, user: ServiceUser, ip: string | null, scope: 'finding' | 'every-board' = 'finding'): Promise<WaiverDto> {
+    return this.waivers.waive(revisionId, key, reason, user, ip, scope);
   }
 
-  /** The review summary: findings by kind with their waivers, the overrides, the changes since the last release. */
-  async reviewSummary(revisionId: string): Promise<ReviewSummaryDto> {
-    const r = await this.getRevisionEntity(revisionId);
-    const program = await this.ds.getRepository(Program).findOneByOrFail({ id: r.programId });
-    const waivers = await this.ds.getRepository(RevisionWaiver).find({ where: { revisionId }, order: { at: 'ASC' } });
-    // the last revision released before this one (this one's own release does not count)
-    const base = await this.ds
-      .getRepository(ProgramRevision)
-      .createQueryBuilder('b')
-      .select(['b.id', 'b.label', 'b.releasedAt', 'b.imported', 'b.settings', 'b.overrides'])
-      .where('b.program_id = :p AND b.id <> :id AND b.released_at IS NOT NULL', { p: r.programId, id: r.id })
-      .andWhere(r.releasedAt ? 'b.released_at < :at' : 'TRUE', { at: r.releasedAt })
-      .orderBy('b.released_at', 'DESC')
-      .limit(1)
-      .getOne();
-    const ref = await this.userRefs(waivers.map((w) => w.userId));
-    // what the library gives each overridden part without its override (the machine's nozzles as the run has them)
-    const machine = revisionSettingsSchema.parse(r.settings).machine;
-    const assigner = new Assigner(await this.deps.library.getLibraryFile(), machine ? machine.nozzles : null);
-    const choice = (footprint: string) => {
-      const a = assigner.assign(footprint);
-      return { package: a.pkg?.name ?? null, nozzle: a.nozzle, vision: a.vision };
-    };
-    return buildReviewSummary(r, program, waivers, (id) => ref(id)?.name ?? null, revisionChanges(r, base ?? null), choice);
+  reviewSummary(revisionId: string): Promise<ReviewSummaryDto> {
+    return this.review.reviewSummary(revisionId);
   }
 
-  async unwaive(revisionId: string, waiverId: string, user: ServiceUser, ip: string | null) {
-    await this.ds.transaction(async (m) => {
-      const r = await this.getRevisionEntity(revisionId, m, true);
-      this.assertEditable(r, 'changed');
-      const w = await m.getRepository(RevisionWaiver).findOneBy({ id: waiverId, revisionId });
-      if (!w) throw new NotFoundError('The waiver');
-      await m.getRepository(RevisionWaiver).delete({ id: w.id });
-      await recordContribution(m, r.id, user, 'waiver');
-      await this.deps.audit.record(user, 'finding.unwaive', await this.label(r, m), { key: w.findingKey }, ip, m);
-    });
+  unwaive(revisionId: string, waiverId: string, user: ServiceUser, ip: string | null): Promise<void> {
+    return this.waivers.unwaive(revisionId, waiverId, user, ip);
   }
 
-  private async blockingFindings(revisionId: string, findings: Finding[], m: EntityManager): Promise<Finding[]> {
-    const waiverOf = waiverLookup(await m.getRepository(RevisionWaiver).findBy({ revisionId }));
-    return findings.filter((f) => f.severity === 'error' && !waiverOf(f));
+  submit(revisionId: string, user: ServiceUser, ip: string | null): Promise<void> {
+    return this.review.submit(revisionId, user, ip);
   }
 
-  async submit(revisionId: string, user: ServiceUser, ip: string | null) {
-    let programLabel = '';
-    await this.ds.transaction(async (m) => {
-      const r = await this.getRevisionEntity(revisionId, m, true);
-      this.assertEditable(r, 'submitted');
-      if (!r.imported) throw new BadRequestError('Import a centroid file first.');
-      if (!r.checkedAt || !r.findings) throw new BadRequestError('Run the checks (Verify stage) before submitting: the inputs changed since the last check.');
-      const blocking = await this.blockingFindings(r.id, r.findings as Finding[], m);
-      if (blocking.length) throw new ConflictError(`${blocking.length} error finding${blocking.length === 1 ? '' : 's'} neither fixed nor waived, e.g. ${blocking[0].message}. Fix or waive them in the Verify stage.`);
-      r.state = 'in-review';
-      r.submittedAt = new Date();
-      r.reviewComment = null;
-      await m.getRepository(ProgramRevision).save(r);
-      programLabel = await this.label(r, m);
-      await recordContribution(m, r.id, user, 'submit');
-      await this.deps.audit.record(user, 'revision.submit', programLabel, {}, ip, m);
-    });
-    const engineers = (await this.deps.users.emailsWithRole('engineer')).filter((e) => e !== user.email);
-    await this.deps.mailer.sendQuietly({
-      to: engineers,
-      subject: `Review requested: ${programLabel}`,
-      text: `${user.email} asks for a review of ${programLabel}.\n\nOpen it: ${this.deps.publicUrl}/programs/revisions/${revisionId}/release\n\nA reviewer must not be the author. Look at the panel drawing and the findings before you approve.`,
-    });
+  approve(revisionId: string, comment: string, user: ServiceUser, ip: string | null): Promise<void> {
+    return this.review.approve(revisionId, comment, user, ip);
   }
 
-  async approve(revisionId: string, comment: string, user: ServiceUser, ip: string | null) {
-    const r0 = await this.getRevisionEntity(revisionId);
-    if (r0.state !== 'in-review') throw new ConflictError(`Revision ${r0.label} is not in review (it is ${r0.state}).`);
-    // Four-eyes: the releaser made none of the revision's changes (checked again below, in the transaction).
-    await assertIndependentReviewer(this.ds.manager, r0, user);
-    const input = await this.engineInput(r0);
-    // Re-check with today's library: the list released is the list checked.
-    // The lists released are the lists checked: one run gives both (in the check worker).
-    const generated = new Date().toISOString().replace(/\.\d{3}Z$/, 'Z');
-    const { check: result, files, withoutPackage } = await this.deps.checks.release(input, generated);
-    for (const { side, count } of withoutPackage) {
-      throw new ConflictError(`${count} placement${count === 1 ? ' has' : 's have'} no package on the ${side} side; the list is not releasable. Add the packages or aliases to the library, or override the parts.`);
-    }
-    let programLabel = '';
-    let authorEmail: string | null = null;
-    await this.ds.transaction(async (m) => {
-      const r = await this.getRevisionEntity(revisionId, m, true);
-      if (r.state !== 'in-review' || r.version !== r0.version) throw new ConflictError('The revision changed while it was being released; reload and review it again.');
-      await assertIndependentReviewer(m, r, user);
-      const contributors = (await contributorsOf(m, r.id)).map((c) => c.userEmail);
-      const blocking = await this.blockingFindings(r.id, result.findings, m);
-      r.findings = result.findings as never;
-      r.findingsSummary = result.summary as never;
-      r.checkedAt = new Date();
-      if (blocking.length) {
-        await m.getRepository(ProgramRevision).save(r);
-        throw new ConflictError(`Re-checking found ${blocking.length} error finding${blocking.length === 1 ? '' : 's'} neither fixed nor waived (the library may have changed), e.g. ${blocking[0].message}. Reject it back to the author.`);
-      }
-      await m.getRepository(ProgramRevision).update({ programId: r.programId, state: 'released' }, { state: 'superseded' });
-      for (const f of files) {
-        await m.getRepository(ReleaseFile).insert({ revisionId: r.id, side: f.side, format: f.format, bytes: Buffer.from(f.text, 'utf8'), sha256: f.sha256, placements: f.placements });
-      }
-      r.state = 'released';
-      r.reviewerId = user.id;
-      r.reviewedAt = new Date();
-      r.releasedAt = new Date();
-      r.reviewComment = comment || null;
-      await m.getRepository(ProgramRevision).save(r);
-      programLabel = await this.label(r, m);
-      authorEmail = (await m.getRepository(User).findOneBy({ id: r.authorId }))?.email ?? null;
-      await this.deps.audit.record(user, 'revision.release', programLabel, { files: files.map((f) => ({ side: f.side, format: f.format, sha256: f.sha256 })), contributors }, ip, m);
-    });
-    const operators = await this.deps.users.emailsWithRole('operator');
-    const sums = files.filter((f) => f.format === 'csv').map((f) => `  ${f.side}: ${f.placements} placements, SHA-256 ${f.sha256}`).join('\n');
-    await this.deps.mailer.sendQuietly({
-      to: operators,
-      subject: `Released: ${programLabel}`,
-      text: `${programLabel} was released by ${user.email}.\n\n${sums}\n\nRun files and the set-up sheet: ${this.deps.publicUrl}/run-files\n\nCheck the checksum on the machine's computer before loading, and follow the machine maker's safety instructions.`,
-    });
-    if (authorEmail) await this.deps.mailer.sendQuietly({ to: [authorEmail], subject: `Released: ${programLabel}`, text: `${user.email} approved and released ${programLabel}.${comment ? `\n\nComment:\n${comment}` : ''}` });
+  reject(revisionId: string, comment: string, user: ServiceUser, ip: string | null): Promise<void> {
+    return this.review.reject(revisionId, comment, user, ip);
   }
 
-  async reject(revisionId: string, comment: string, user: ServiceUser, ip: string | null) {
-    let programLabel = '';
-    let authorEmail: string | null = null;
-    await this.ds.transaction(async (m) => {
-      const r = await this.getRevisionEntity(revisionId, m, true);
-      if (r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is not in review (it is ${r.state}).`);
-      await assertIndependentReviewer(m, r, user, 'review it (to change it yourself, withdraw it and start again)');
-      r.state = 'draft';
-      r.reviewerId = user.id;
-      r.reviewedAt = new Date();
-      r.reviewComment = comment;
-      await m.getRepository(ProgramRevision).save(r);
-      programLabel = await this.label(r, m);
-      authorEmail = (await m.getRepository(User).findOneBy({ id: r.authorId }))?.email ?? null;
-      await this.deps.audit.record(user, 'revision.reject', programLabel, { comment }, ip, m);
-    });
-    if (authorEmail) {
-      await this.deps.mailer.sendQuietly({
-        to: [authorEmail],
-        subject: `Changes requested: ${programLabel}`,
-        text: `${user.email} sent ${programLabel} back to draft.\n\nComment:\n${comment}\n\nOpen it: ${this.deps.publicUrl}/programs/revisions/${revisionId}`,
-      });
-    }
+  withdraw(revisionId: string, user: ServiceUser, ip: string | null): Promise<void> {
+    return this.review.withdraw(revisionId, user, ip);
   }
 
-  async withdraw(revisionId: string, user: ServiceUser, ip: string | null) {
-    await this.ds.transaction(async (m) => {
-      const r = await this.getRevisionEntity(revisionId, m, true);
-      if (r.state !== 'draft' && r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is ${r.state}; only a draft or a revision in review can be withdrawn.`);
-      r.state = 'withdrawn';
-      await m.getRepository(ProgramRevision).save(r);
-      await this.deps.audit.record(user, 'revision.withdraw', await this.label(r, m), {}, ip, m);
-    });
-  }
-
-  async addComment(revisionId: string, input: { side: Side; kind: 'comment' | 'checked'; x: number | null; y: number | null; findingKey: string | null; text: string }, user: ServiceUser, ip: string | null): Promise<CommentDto> {
-    return this.ds.transaction(async (m) => {
-      const r = await this.getRevisionEntity(revisionId, m, true);
-      if (r.state !== 'draft' && r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is ${r.state}: review notes are closed.`);
-      const c = await m.getRepository(RevisionComment).save(m.getRepository(RevisionComment).create({ revisionId, ...input, userId: user.id, userEmail: user.email }));
-      await this.deps.audit.record(user, input.kind === 'checked' ? 'review.checked' : 'review.comment', await this.label(r, m), { text: input.text.slice(0, 200) }, ip, m);
-      return commentDto(c);
-    });
+  addComment(revisionId: string, input: CommentInput, user: ServiceUser, ip: string | null): Promise<CommentDto> {
+    return this.waivers.addComment(revisionId, input, user, ip);
   }
 
   async setUnderlay(revisionId: string, side: Side, underlay: Record<string, unknown> | null, user: ServiceUser, ip: string | null) {
     await this.ds.transaction(async (m) => {
       const r = await this.getRevisionEntity(revisionId, m, true);
-      if (r.state !== 'draft' && r.state !== 'in-review') throw new ConflictError(`Revision ${r.label} is ${r.state}: its underlay cannot change.`);
+      if (!notesOpen(r.state)) throw new ConflictError(`Revision ${r.label} is ${r.state}: its underlay cannot change.`);
       r.underlay = { ...(r.underlay ?? {}), [side]: underlay };
       await m.getRepository(ProgramRevision).save(r);
       await this.deps.audit.record(user, 'revision.underlay', await this.label(r, m), { side, set: underlay !== null }, ip, m);
@@ -673,34 +438,4 @@ export class ProgramService {
   }
 }
 
-/** Centroid files are text: UTF-8 (a BOM is fine) or Latin-1 as older CAD tools write. */
-/** The placed (not do-not-place) parts' centres: their bounding box in design coordinates (mm). */
-
-
-/** Waivers as sent, each with the number of `findings` it covers. */
-export function waiverDtos(waivers: readonly RevisionWaiver[], findings: readonly Finding[]): WaiverDto[] {
-  const waiverOf = waiverLookup(waivers);
-  const covers = new Map<RevisionWaiver, number>();
-  for (const f of findings) {
-    const w = waiverOf(f);
-    if (w) covers.set(w, (covers.get(w) ?? 0) + 1);
-  }
-  return waivers.map((w) => ({
-    id: w.id,
-    findingKey: w.findingKey,
-    scope: w.scope === 'every-board' ? 'every-board' : 'finding',
-    kind: w.kind,
-    reason: w.reason,
-    userEmail: w.userEmail,
-    at: w.at.toISOString(),
-    covers: covers.get(w) ?? 0,
-  }));
-}
-
-export function commentDto(c: RevisionComment): CommentDto {
-  return { id: c.id, side: c.side as Side, kind: c.kind as 'comment' | 'checked', x: c.x, y: c.y, findingKey: c.findingKey, text: c.text, userEmail: c.userEmail, at: c.at.toISOString() };
-}
-
-export function releaseFileDto(f: Pick<ReleaseFile, 'revisionId' | 'side' | 'format' | 'sha256' | 'placements'>, bytes: number): ReleaseFileDto {
-  return { side: f.side as Side, format: f.format as 'csv' | 'json', sha256: f.sha256, placements: f.placements, bytes, url: `/api/run-files/${f.revisionId}/${f.side}.${f.format}` };
-}
+export { commentDto, releaseFileDto, waiverDtos } from './program-dto';
