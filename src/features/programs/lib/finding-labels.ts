@@ -1,5 +1,7 @@
-/** What each kind of finding is called on screen (kinds not listed show their own name). */
-export const FINDING_KIND_LABELS: Record<string, string> = {
+import type { FindingKind } from '../../../../shared/schemas/finding.schema';
+
+/** What each kind of finding is called on screen: every kind has a label (a new kind does not compile without one). */
+export const FINDING_KIND_LABELS: Record<FindingKind, string> = {
   'body-overlap': 'Bodies overlap',
   'courtyard-overlap': 'Courtyards overlap',
   'off-board': 'Part off its board',
@@ -13,7 +15,7 @@ export const FINDING_KIND_LABELS: Record<string, string> = {
   'no-nozzle': 'No nozzle on the machine',
 };
 
-export const findingKindLabel = (kind: string) => FINDING_KIND_LABELS[kind] ?? kind;
+export const findingKindLabel = (kind: string) => FINDING_KIND_LABELS[kind as FindingKind] ?? kind;
 
 /** What a waiver's key names, for people: "1:R1, 1:R2", "boards 1, 2" or "the panel". */
 export function waivedWhat(refs: readonly string[]): string {

@@ -10,21 +10,8 @@ import { useRunChecks, useUnwaive, useWaive } from '../../../../features/program
 import { RevisionCanvas } from '../../../../features/programs/components/revision-canvas';
 import { waivedWhat } from '../../../../features/programs/lib/finding-labels';
 import { dateTime, mm } from '../../../../lib/format';
+import { findingKindLabel } from '../../../../features/programs/lib/finding-labels';
 import { useWorkspace } from '../workspace';
-
-const KIND_LABELS: Record<string, string> = {
-  'body-overlap': 'Bodies overlap',
-  'courtyard-overlap': 'Courtyards overlap',
-  'off-board': 'Part off its board',
-  'board-overlap': 'Boards overlap',
-  'off-panel': 'Board off the panel',
-  'fiducial-clearance': 'Part in a fiducial’s clear area',
-  'nozzle-shadow': 'Taller neighbour near the nozzle',
-  'nozzle-size': 'Nozzle wider than the part',
-  'out-of-reach': 'Out of the machine’s reach',
-  'no-package': 'No package',
-  'no-nozzle': 'No nozzle on the machine',
-};
 
 /** The waive form; for scope 'every-board', `boards` are the boards the finding repeats on now. */
 function WaiveForm({ finding, scope, boards, onDone }: { finding: Finding; scope: 'finding' | 'every-board'; boards: number[]; onDone: () => void }) {
@@ -114,7 +101,7 @@ export default function VerifyStage() {
               <div key={kind} className="rounded border border-ink-200 bg-white">
                 <button type="button" aria-expanded={open} onClick={() => setOpenKinds((s) => { const n = new Set(s); if (n.has(kind)) n.delete(kind); else n.add(kind); return n; })} className="flex w-full items-center gap-3 px-4 py-2 text-left">
                   <Badge tone={list[0].severity === 'error' ? 'error' : 'warning'}>{list[0].severity}</Badge>
-                  <span className="font-medium">{KIND_LABELS[kind] ?? kind}</span>
+                  <span className="font-medium">{findingKindLabel(kind)}</span>
                   <span className="num text-xs text-ink-500">{list.length} · {list.filter((f) => waiverOf(f)).length} waived</span>
                   <span className="ml-auto text-ink-400">{open ? '▾' : '▸'}</span>
                 </button>
@@ -158,7 +145,7 @@ export default function VerifyStage() {
           <ul className="flex flex-col gap-1">
             {r.waivers.map((w) => (
               <li key={w.id} className="flex flex-wrap items-baseline gap-2">
-                <span className="font-medium">{KIND_LABELS[w.kind] ?? w.kind}</span>
+                <span className="font-medium">{findingKindLabel(w.kind)}</span>
                 <span className="num text-xs">{waivedWhat(w.scope === 'every-board' ? everyBoardRefs(w.findingKey) : w.findingKey.split('|').slice(1))}</span>
                 <WaiverNote w={w} canEdit={r.can.edit} onRemove={() => unwaive.mutate(w.id, { onError: (e) => toast.error(e.message) })} />
               </li>
