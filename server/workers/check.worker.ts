@@ -2,6 +2,19 @@
 // while a large panel is verified. The engine's one entry does the work (engine.ts → runRevision).
 import { checkRevision, releaseRevision, type EngineInput } from '../modules/programs/engine';
 import { previewTask, readImportTask, type PreviewInput, type ReadImportInput } from '../modules/programs/import-task';
+import { setPriority } from 'node:os';
+
+// This thread yields to the server's event loop when the processor is busy: on Linux the nice
+// value is per thread, and setpriority(2) with pid 0 changes the calling thread only (its man
+// page, "BUGS"), so health and every other request are served first while a file is read or a
+// panel checked. Elsewhere it would lower the whole process, so it is left alone there.
+if (process.platform === 'linux') {
+  try {
+    setPriority(10);
+  } catch {
+    /* not permitted: run at the normal priority */
+  }
+}
 
 export default function check(input: EngineInput) {
   return checkRevision(input);

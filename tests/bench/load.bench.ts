@@ -213,6 +213,7 @@ export async function run(): Promise<Record<string, unknown>> {
       const res = await engineer.upload(revId, 'centroid/preview', f, `hostile-${i + 1}.csv`, 0);
       const text = await res.text();
       fuzzStatuses.set(res.status, (fuzzStatuses.get(res.status) ?? 0) + 1);
+      if ((i + 1) % 100 === 0) log(`  ${i + 1} files`);
       if (res.status >= 500) {
         fuzz5xx++;
         log(`  file ${i + 1}: ${res.status} ${text.slice(0, 300)}`);
