@@ -2,12 +2,10 @@ import { act, fireEvent, render, screen, within } from '@testing-library/react';
 import { readFileSync } from 'node:fs';
 import { useState } from 'react';
 import { describe, expect, it, vi } from 'vitest';
-import { runJob } from '../../shared/pipeline';
+import { runRevision } from '../../shared/engine';
 import type { RunResult, Side } from '../../shared/core';
 import { jobSchema } from '../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
-import { verifyInputFromRuns } from '../../shared/verify';
-import { verify } from '../../shared/verify';
 import { PanelCanvas, PanelReview, type NewNote } from '../../src/features/canvas';
 
 function faultyRuns() {
@@ -15,8 +13,9 @@ function faultyRuns() {
   const library = libraryFileSchema.parse(JSON.parse(readFileSync('samples/library.json', 'utf8')));
   const csv = readFileSync('samples/faulty/faulty.csv', 'utf8');
   const runs = {} as Record<Side, RunResult>;
-  for (const side of ['top', 'bottom'] as const) runs[side] = runJob({ job, centroidText: csv, library, side });
-  return { runs, findings: verify(verifyInputFromRuns([runs.top, runs.bottom])).findings };
+  const run = runRevision({ job, centroidText: csv, library, sides: 'both' });
+  for (const r of run.runs) runs[r.side] = r;
+  return { runs, findings: run.check!.findings };
 }
 const { runs, findings } = faultyRuns();
 

@@ -1,11 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { runJob } from '../../shared/pipeline';
+import { runRevision } from '../../shared/engine';
 import type { RunResult, Side } from '../../shared/core';
 import { jobSchema } from '../../shared/schemas/job.schema';
 import { libraryFileSchema } from '../../shared/schemas/library-file.schema';
-import { verifyInputFromRuns } from '../../shared/verify';
-import { verify } from '../../shared/verify';
 import { buildScene, dimMask } from '../../src/features/canvas/scene';
 import { CanvasStore, DEFAULT_LAYERS, LAYERS } from '../../src/features/canvas/store';
 
@@ -14,8 +12,9 @@ function faultyRuns() {
   const library = libraryFileSchema.parse(JSON.parse(readFileSync('samples/library.json', 'utf8')));
   const csv = readFileSync('samples/faulty/faulty.csv', 'utf8');
   const runs = {} as Record<Side, RunResult>;
-  for (const side of ['top', 'bottom'] as const) runs[side] = runJob({ job, centroidText: csv, library, side });
-  return { runs, findings: verify(verifyInputFromRuns([runs.top, runs.bottom])).findings };
+  const run = runRevision({ job, centroidText: csv, library, sides: 'both' });
+  for (const r of run.runs) runs[r.side] = r;
+  return { runs, findings: run.check!.findings };
 }
 
 describe('canvas store: layers', () => {
