@@ -52,7 +52,8 @@ export function PanelPreview({ settings, reach, height = 360, labelFiducials: la
   if (!model) return <p className="rounded border border-dashed border-ink-300 bg-white p-6 text-sm text-ink-500">Enter the board size and the panel to see it drawn to scale.</p>;
   if ('error' in model) return <p role="alert" className="rounded border border-sev-error/40 bg-sev-error/5 p-3 text-sm text-sev-error">{model.error}</p>;
   const { panel, boards, fids } = model;
-  const pad = Math.max(panel.width, panel.height) * 0.04;
+  // room around the panel; more when fiducial names are written beside them
+  const pad = Math.max(panel.width, panel.height) * (labelFids && fids.length ? 0.09 : 0.04);
   const maxX = Math.max(panel.width, reach?.x ?? 0);
   const maxY = Math.max(panel.height, reach?.y ?? 0);
   const showReach = reach && (reach.x < panel.width * 3 && reach.y < panel.height * 3);
