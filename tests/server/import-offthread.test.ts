@@ -113,6 +113,23 @@ describe('imports off the main thread', () => {
     }
   }, 60_000);
 
+  it('past the most uploads read at once, a preview answers 503 and nothing is queued', async () => {
+    const revId = await createProgram();
+    const pool = ctx.app.locals.services.checks as CheckPool;
+    const before = pool.maxImportsInFlight;
+    pool.maxImportsInFlight = 0;
+    try {
+      const res = await upload(revId, badRows(10), 'busy.csv', 'centroid/preview');
+      expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(503);
+      expect(res.body.detail).toMatch(/busy\.csv again/);
+    } finally {
+      pool.maxImportsInFlight = before;
+    }
+    const ok = await upload(revId, badRows(10), 'calm.csv', 'centroid/preview');
+    expect(ok.status).toBe(200);
+    expect(ok.body.badRows).toBe(10);
+  }, 60_000);
+
   it('a bad file committed is refused with its first bad line, read in the worker', async () => {
     const revId = await createProgram();
     const res = await upload(revId, Buffer.from(HEADER + 'R1,1,1,0,top,R0603\nR2,x,1,0,top,R0603\n'), 'one-bad.csv', 'centroid');

@@ -8,6 +8,12 @@ import { taskErrorToThrow, type ImportPreview, type PreviewInput, type ReadImpor
 /** The longest an import preview or an import's reading may take (ms) before it is stopped. */
 export const IMPORT_TIME_LIMIT_MS = 60_000;
 
+/**
+ * Uploads read or waiting to be read at once; past that an upload is refused (503) rather than
+ * queued, so a flood of 20 MB files cannot pile up in memory.
+ */
+export const MAX_IMPORTS_IN_FLIGHT = 8;
+
 const WORKER = fileURLToPath(new URL('../../workers/check.worker.ts', import.meta.url));
 
 /** Worker threads for checks; TypeScript is loaded there through tsx as in the main thread. */
@@ -21,7 +27,10 @@ export class CheckPool {
   constructor(
     private readonly timeoutMs = 5 * 60_000,
     public importTimeoutMs = IMPORT_TIME_LIMIT_MS,
+    public maxImportsInFlight = MAX_IMPORTS_IN_FLIGHT,
   ) {}
+
+  private importsInFlight = 0;
 
   private get instance(): Piscina {
     if (!this.pool) {
@@ -63,6 +72,20 @@ export class CheckPool {
   }
 
   private async importTask<T>(name: string, input: PreviewInput | ReadImportInput, cancel?: AbortSignal): Promise<T> {
+    if (this.importsInFlight >= this.maxImportsInFlight) {
+      throw new DomainError(503, 'Server busy', `${this.importsInFlight} uploaded files are being read already, the most at once. Try ${input.fileName} again in a few seconds.`, [
+        { path: 'file', message: 'Too many uploads at once' },
+      ]);
+    }
+    this.importsInFlight++;
+    try {
+      return await this.readUpload<T>(name, input, cancel);
+    } finally {
+      this.importsInFlight--;
+    }
+  }
+
+  private async readUpload<T>(name: string, input: PreviewInput | ReadImportInput, cancel?: AbortSignal): Promise<T> {
     const limitMs = this.importTimeoutMs;
     const timeout = AbortSignal.timeout(limitMs);
     let out: TaskOutcome<T>;
