@@ -21,7 +21,9 @@ const NO_UNITS = readFileSync(join(SAMPLES, 'weather-station/weather-ctl.csv'));
 
 beforeAll(async () => {
   h = await startBrowserHarness();
-  const author = await makeUser(h.ctx.ds, ['engineer'], { name: 'Tess Marlow' });
+  // an e-mail of its own: the browser tests share one database, and makeUser's numbering starts
+  // again in every test file
+  const author = await makeUser(h.ctx.ds, ['engineer'], { name: 'Tess Marlow', email: `tess-${Date.now().toString(36)}@trust.example` });
   const a = await agent(h.ctx);
   expect((await a.signIn(author)).status).toBe(200);
   const created = await a.a.post('/api/programs').set('X-CSRF-Token', a.token).send({ name: PROGRAM, product: 'Weather-station controller', board: 'WSC-200 rev 3' });
