@@ -1,36 +1,25 @@
 // The panel drawn to scale: Konva layers with one batch-drawing shape each, our own pointer and
 // keyboard handling, hit testing through the body index. Draws what the engine computed.
+// Frame scheduling, the pointer and the keyboard live in ../hooks (use-frame-scheduler,
+// use-canvas-pointer, use-canvas-keys); the layers are drawn by ../draw.
 import Konva from 'konva';
-import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
+import { useCallback, useEffect, useMemo, useRef } from 'react';
 import { Layer, Shape, Stage } from 'react-konva';
-import {
-  applyAffine,
-  fitUnderlay,
-  fitView,
-  hitBox,
-  hitPoint,
-  invertAffine,
-  panBy,
-  screenToWorld,
-  zoomAbout,
-  type ViewTransform,
-} from '../../../../shared/canvas';
+import { applyAffine, fitView, type ViewTransform } from '../../../../shared/canvas';
 import type { RunResult } from '../../../../shared/core';
 import type { Finding } from '../../../../shared/schemas/finding.schema';
-import { drawBase, drawBodies, drawFindings, drawOverlay, drawUnderlay, type CanvasNote, type OverlayState } from '../draw';
+import { drawBase, drawBodies, drawFindings, drawOverlay, drawUnderlay, type CanvasNote } from '../draw';
+import { useCanvasKeys } from '../hooks/use-canvas-keys';
+import { useCanvasPointer, type CanvasExtras } from '../hooks/use-canvas-pointer';
 import { useElementSize } from '../hooks/use-element-size';
+import { DIRTY_ALL, DIRTY_BASE, DIRTY_BODIES, DIRTY_OVERLAY, DIRTY_UNDERLAY, useFrameScheduler, type DrawStats } from '../hooks/use-frame-scheduler';
 import { CANVAS_COLORS } from '../palette';
 import { buildScene, dimMask, type Scene } from '../scene';
-import { CanvasStore, LAYERS, useCanvasState, type CanvasState } from '../store';
+import { CanvasStore, type CanvasState } from '../store';
 import type { NewNote, UnderlayState } from '../types';
 import { CursorReadout, HelpPopover, HoverCard, NoteEditor, ScaleBar, SideBadge } from './canvas-chrome';
 
-export interface DrawStats {
-  /** which layers were drawn */
-  layers: string[];
-  /** time spent drawing them, ms */
-  ms: number;
-}
+export type { DrawStats };
 
 export interface PanelCanvasProps {
   /** one side of one panel, as the engine produced it */
@@ -57,14 +46,6 @@ export interface PanelCanvasProps {
   label?: string;
 }
 
-/** A turn in (−180, 180], 2 decimals, without a "-0.00". */
-const signedTurn = (d: number) => {
-  const v = d > 180 ? d - 360 : d;
-  return Math.abs(v) < 0.005 ? '0.00' : v.toFixed(2);
-};
-
-const DIRTY_UNDERLAY = 1, DIRTY_BASE = 2, DIRTY_BODIES = 4, DIRTY_OVERLAY = 8, DIRTY_ALL = 15;
-const CLICK_SLOP = 4;
 /** Height of the strips above and below the drawing (px); the component is `height` + 2 strips + 2 px of border. */
 export const CANVAS_STRIP_PX = 32;
 export const CANVAS_CHROME_PX = 2 * CANVAS_STRIP_PX + 2;
@@ -96,43 +77,9 @@ export function PanelCanvas({
   const dimRef = useRef<Uint8Array | null>(null);
   const imageRef = useRef<HTMLImageElement | null>(null);
   const underlayRef = useRef(underlay);
-  const extrasRef = useRef({ checked: checkedFindingKeys ?? new Set<string>(), notes, box: null as OverlayState['box'], pendingNote: null as { x: number; y: number } | null, alignImage: [] as { x: number; y: number }[], alignPanel: [] as { x: number; y: number }[] });
+  const extrasRef = useRef<CanvasExtras>({ checked: checkedFindingKeys ?? new Set<string>(), notes, box: null, pendingNote: null, alignImage: [], alignPanel: [] });
   const layerRefs = { underlay: useRef<Konva.Layer>(null), base: useRef<Konva.Layer>(null), bodies: useRef<Konva.Layer>(null), overlay: useRef<Konva.Layer>(null) };
-  const dirty = useRef(0);
-  const frame = useRef(0);
-  const onDrawRef = useRef(onDraw);
-  onDrawRef.current = onDraw;
-
-  const flush = useCallback(() => {
-    frame.current = 0;
-    const d = dirty.current;
-    dirty.current = 0;
-    const t0 = performance.now();
-    const drawn: string[] = [];
-    if (d & DIRTY_UNDERLAY && layerRefs.underlay.current) { layerRefs.underlay.current.draw(); drawn.push('underlay'); }
-    if (d & DIRTY_BASE && layerRefs.base.current) { layerRefs.base.current.draw(); drawn.push('base'); }
-    if (d & DIRTY_BODIES && layerRefs.bodies.current) { layerRefs.bodies.current.draw(); drawn.push('bodies'); }
-    if (d & DIRTY_OVERLAY && layerRefs.overlay.current) { layerRefs.overlay.current.draw(); drawn.push('overlay'); }
-    onDrawRef.current?.({ layers: drawn, ms: performance.now() - t0 });
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, []);
-  const schedule = useCallback(
-    (mask: number) => {
-      dirty.current |= mask;
-      if (!frame.current) frame.current = requestAnimationFrame(flush);
-    },
-    [flush],
-  );
-  const idleTimer = useRef(0);
-  // On unmount the pending frame is cancelled and forgotten: React's StrictMode (development
-  // builds) unmounts and mounts again at once, and a stale frame id here would make `schedule`
-  // believe a frame is still coming, so the canvas would never draw again.
-  useEffect(() => () => {
-    cancelAnimationFrame(frame.current);
-    frame.current = 0;
-    clearTimeout(idleTimer.current);
-    idleTimer.current = 0;
-  }, []);
+  const { schedule, idleTimer } = useFrameScheduler(layerRefs, onDraw);
 
   // ---- keep refs current -----------------------------------------------------------------------
   useEffect(() => {
@@ -323,215 +270,13 @@ export function PanelCanvas({
     });
   };
 
-  // ---- pointer -------------------------------------------------------------------------------
-  const drag = useRef<{ x: number; y: number; sx: number; sy: number; mode: 'pan' | 'box'; moved: boolean; id: number } | null>(null);
-  const [pendingNote, setPendingNote] = useState<{ x: number; y: number } | null>(null);
-  const [alignStep, setAlignStep] = useState<string | null>(null);
-  const [alignError, setAlignError] = useState<string | null>(null);
-  const hoverPos = useRef({ x: 0, y: 0 });
-  const [hoverXY, setHoverXY] = useState({ x: 0, y: 0 });
+  // ---- pointer, wheel and underlay alignment (../hooks/use-canvas-pointer) -----------------------
+  const { drag, pendingNote, setPendingNote, alignStep, alignError, hoverXY, tool, onPointerDown, onPointerMove, onPointerUp, onPointerLeave } = useCanvasPointer({
+    store, containerRef, sceneRef, extrasRef, underlayRef, schedule, onUnderlayChange,
+  });
 
-  const local = (e: { clientX: number; clientY: number }) => {
-    const r = containerRef.current!.getBoundingClientRect();
-    return { x: e.clientX - r.left, y: e.clientY - r.top };
-  };
-  const visibleAccept = () => (store.getState().layers.bodies ? undefined : () => false);
-
-  const onPointerDown = (e: React.PointerEvent<HTMLDivElement>) => {
-    containerRef.current?.focus({ preventScroll: true });
-    const p = local(e);
-    const box = e.shiftKey && e.button === 0 && store.getState().tool === 'select';
-    drag.current = { x: p.x, y: p.y, sx: p.x, sy: p.y, mode: box ? 'box' : 'pan', moved: false, id: e.pointerId };
-    try {
-      (e.target as Element).setPointerCapture?.(e.pointerId);
-    } catch {
-      // a synthetic pointer (tests, the benchmark) cannot be captured
-    }
-  };
-
-  const onPointerMove = (e: React.PointerEvent<HTMLDivElement>) => {
-    const p = local(e);
-    const s = store.getState();
-    if (!s.view) return;
-    const d = drag.current;
-    if (d) {
-      if (!d.moved && Math.hypot(p.x - d.sx, p.y - d.sy) > CLICK_SLOP) d.moved = true;
-      if (d.moved && d.mode === 'pan') {
-        store.set({ view: panBy(s.view, p.x - d.x, p.y - d.y) });
-      } else if (d.moved && d.mode === 'box') {
-        extrasRef.current.box = { x0: d.sx, y0: d.sy, x1: p.x, y1: p.y };
-        schedule(DIRTY_OVERLAY);
-      }
-      d.x = p.x;
-      d.y = p.y;
-    }
-    const w = screenToWorld(s.view, p.x, p.y);
-    const hit = d?.moved ? -1 : hitPoint(sceneRef.current.index, w.x, w.y, 2 / s.view.s, visibleAccept());
-    hoverPos.current = p;
-    if (hit !== s.hovered) {
-      setHoverXY(p);
-      store.set({ hovered: hit, cursor: w });
-    } else {
-      store.set({ cursor: w });
-      if (hit >= 0) setHoverXY(p);
-    }
-  };
-
-  const clickAt = (p: { x: number; y: number }, e: { shiftKey: boolean; ctrlKey: boolean; metaKey: boolean }) => {
-    const s = store.getState();
-    if (!s.view) return;
-    const w = screenToWorld(s.view, p.x, p.y);
-    const sc = sceneRef.current;
-    const tol = 3 / s.view.s;
-    const hit = hitPoint(sc.index, w.x, w.y, tol, visibleAccept());
-    if (s.tool === 'measure') {
-      const snap = hit >= 0 ? { x: sc.run.placements.x[hit], y: sc.run.placements.y[hit], part: hit } : { x: w.x, y: w.y, part: -1 };
-      store.addMeasurePoint(snap);
-      return;
-    }
-    if (s.tool === 'note') {
-      extrasRef.current.pendingNote = w;
-      setPendingNote(w);
-      schedule(DIRTY_OVERLAY);
-      return;
-    }
-    if (s.tool === 'align') {
-      alignClick(w);
-      return;
-    }
-    const mode = e.ctrlKey || e.metaKey ? 'toggle' : e.shiftKey ? 'add' : 'replace';
-    if (hit >= 0) {
-      store.selectParts([hit], mode);
-      return;
-    }
-    if (s.layers.findings) {
-      const pad = 6 / s.view.s;
-      const k = sc.findingBoxes.findIndex((b) => w.x >= b.minX - pad && w.x <= b.maxX + pad && w.y >= b.minY - pad && w.y <= b.maxY + pad);
-      if (k >= 0) {
-        store.selectFindings([sc.findings[k].key], mode);
-        return;
-      }
-    }
-    if (mode === 'replace') store.clearSelection();
-  };
-
-  const onPointerUp = (e: React.PointerEvent<HTMLDivElement>) => {
-    const d = drag.current;
-    drag.current = null;
-    if (!d) return;
-    const p = local(e);
-    const s = store.getState();
-    if (!d.moved) {
-      clickAt(p, e);
-      return;
-    }
-    if (d.mode === 'box' && s.view) {
-      extrasRef.current.box = null;
-      const a = screenToWorld(s.view, d.sx, d.sy);
-      const b = screenToWorld(s.view, p.x, p.y);
-      const sc = sceneRef.current;
-      const parts = hitBox(sc.index, { minX: Math.min(a.x, b.x), minY: Math.min(a.y, b.y), maxX: Math.max(a.x, b.x), maxY: Math.max(a.y, b.y) }, sc.run.placements.x, sc.run.placements.y, visibleAccept());
-      store.selectParts(parts, e.ctrlKey || e.metaKey ? 'toggle' : 'add');
-      schedule(DIRTY_OVERLAY);
-    }
-  };
-
-  const onPointerLeave = () => {
-    if (store.getState().hovered !== -1 || store.getState().cursor) store.set({ hovered: -1, cursor: null });
-  };
-
-  // wheel: zoom about the cursor (a native listener: React's wheel listener is passive)
-  useEffect(() => {
-    const el = containerRef.current;
-    if (!el) return;
-    const onWheel = (e: WheelEvent) => {
-      e.preventDefault();
-      const s = store.getState();
-      if (!s.view) return;
-      const r = el.getBoundingClientRect();
-      const dy = e.deltaMode === 1 ? e.deltaY * 16 : e.deltaY;
-      store.set({ view: zoomAbout(s.view, e.clientX - r.left, e.clientY - r.top, Math.exp(-dy * 0.0015)) });
-    };
-    el.addEventListener('wheel', onWheel, { passive: false });
-    return () => el.removeEventListener('wheel', onWheel);
-  }, [store]);
-
-  // ---- underlay alignment: image point, panel point, twice ---------------------------------------
-  const alignClick = (w: { x: number; y: number }) => {
-    const u = underlayRef.current;
-    if (!u) return;
-    const e = extrasRef.current;
-    if (e.alignImage.length === e.alignPanel.length) {
-      const inv = invertAffine(u.transform);
-      e.alignImage.push(applyAffine(inv, w.x, w.y));
-      setAlignStep(`Now click where image point ${e.alignImage.length} belongs on the panel.`);
-    } else {
-      e.alignPanel.push(w);
-      if (e.alignPanel.length >= 2) {
-        try {
-          const f = fitUnderlay(e.alignImage, e.alignPanel);
-          onUnderlayChange?.({ ...u, transform: f.transform, pairs: { image: [...e.alignImage], panel: [...e.alignPanel] } });
-          setAlignError(null);
-          setAlignStep(`Aligned: ${(f.scale * 1000).toFixed(3)} µm per pixel, turned ${signedTurn(f.rotationDeg)}°.`);
-        } catch (err) {
-          setAlignError((err as Error).message);
-          setAlignStep(null);
-        }
-        e.alignImage = [];
-        e.alignPanel = [];
-        store.setTool('select');
-      } else {
-        setAlignStep('Click a second point on the image, far from the first.');
-      }
-    }
-    schedule(DIRTY_OVERLAY);
-  };
-  const tool = useCanvasState(store, (s) => s.tool);
-  useEffect(() => {
-    if (tool === 'align') {
-      setAlignError(null);
-      setAlignStep('Click a recognisable point on the image (a corner, a fiducial).');
-    } else if (alignStep && !alignStep.startsWith('Aligned')) setAlignStep(null);
-    if (tool !== 'note') {
-      extrasRef.current.pendingNote = null;
-      setPendingNote(null);
-    }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [tool]);
-
-  // ---- keyboard: our own shortcuts (listed in the help popover) -----------------------------------
-  const [helpOpen, setHelpOpen] = useState(false);
-  const onKeyDown = (e: ReactKeyboardEvent<HTMLDivElement>) => {
-    if (e.target !== containerRef.current) return; // typing in the note editor
-    const s = store.getState();
-    if (!s.view) return;
-    const { width: w, height: h } = sizeRef.current;
-    const step = e.shiftKey ? 200 : 60;
-    let handled = true;
-    switch (e.key) {
-      case 'f': case 'F': fit(); break;
-      case '+': case '=': store.set({ view: zoomAbout(s.view, w / 2, h / 2, 1.5) }); break;
-      case '-': case '_': store.set({ view: zoomAbout(s.view, w / 2, h / 2, 1 / 1.5) }); break;
-      case 'ArrowLeft': store.set({ view: panBy(s.view, step, 0) }); break;
-      case 'ArrowRight': store.set({ view: panBy(s.view, -step, 0) }); break;
-      case 'ArrowUp': store.set({ view: panBy(s.view, 0, step) }); break;
-      case 'ArrowDown': store.set({ view: panBy(s.view, 0, -step) }); break;
-      case 'm': case 'M': store.setTool(s.tool === 'measure' ? 'select' : 'measure'); break;
-      case 'n': case 'N': if (onAddNote) store.setTool(s.tool === 'note' ? 'select' : 'note'); break;
-      case 'Escape':
-        setHelpOpen(false);
-        if (s.tool !== 'select') store.setTool('select');
-        else store.clearSelection();
-        break;
-      case '?': setHelpOpen((o) => !o); break;
-      default: {
-        const n = e.key >= '0' && e.key <= '9' && !e.ctrlKey && !e.metaKey && !e.altKey ? (e.key === '0' ? 9 : Number(e.key) - 1) : -1;
-        if (n >= 0 && n < LAYERS.length) store.toggleLayer(LAYERS[n].id);
-        else handled = false;
-      }
-    }
-    if (handled) e.preventDefault();
-  };
+  // ---- keyboard: our own shortcuts (../hooks/use-canvas-keys) -------------------------------------
+  const { helpOpen, setHelpOpen, onKeyDown } = useCanvasKeys({ store, containerRef, sizeRef, fit, canNote: !!onAddNote });
 
   const submitNote = (text: string) => {
     const p = extrasRef.current.pendingNote;
