@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { Problem } from '../../shared/schemas/problem.schema';
-import { EngineInputError } from '../../shared/core';
+import { EngineInputError, byteSizeText } from '../../shared/core';
 import { DomainError, NotFoundError, ServiceUnavailableError, isDatabaseUnavailable, uniqueViolation } from '../lib/errors';
 
 function problem(status: number, title: string, detail: string, errors: Problem['errors'] = []): Problem {
@@ -35,7 +35,7 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   } else if (err?.type === 'entity.parse.failed') {
     body = problem(400, 'Malformed JSON', 'The request body is not valid JSON. Check quotes, commas and brackets.');
   } else if (err?.type === 'entity.too.large') {
-    body = problem(413, 'Body too large', `The request body is larger than the ${err.limit ? Math.round(err.limit / 1024) + ' KB' : 'allowed'} limit.`);
+    body = problem(413, 'Body too large', `The request body is larger than the ${err.limit ? byteSizeText(err.limit) : 'allowed'} limit.`);
   } else if (err?.code === 'EBADCSRFTOKEN' || err?.code === 'ERR_BAD_CSRF_TOKEN' || /csrf/i.test(err?.message ?? '')) {
     body = problem(403, 'Missing or invalid CSRF token', 'Reload the page and try again: the form\u2019s security token is missing or out of date.');
   } else if (err?.name === 'MulterError') {

@@ -46,3 +46,15 @@ export function lengthText(v: number | null | undefined, decimals = 3): string {
 export function angleText(v: number | null | undefined, decimals = 3): string {
   return v == null || !Number.isFinite(v) ? '—' : `${fixed(v, decimals)}°`;
 }
+
+/**
+ * A size in bytes as people read it, in decimal units (SI prefixes: 1 kB = 1000 bytes, 1 MB =
+ * 1000 kB): "812 B", "41.2 kB", "1.3 MB"; "—" when there is none. The one file-size rule, for the
+ * pages and the server's messages alike.
+ */
+export function byteSizeText(bytes: number): string {
+  if (!Number.isFinite(bytes) || bytes < 0) return '—';
+  if (bytes < 1000) return `${bytes} B`;
+  if (bytes < 999_950) return `${(bytes / 1000).toFixed(1)} kB`;
+  return `${(bytes / 1_000_000).toFixed(1)} MB`;
+}

@@ -4,5 +4,5 @@ export { EngineInputError, type EngineInputErrorFields } from './errors';
 export { parseWith, issuePath } from './parse-input';
 export { placementRecord, placementRecords, allocatePlacementColumns, defineLazyColumns, filledArray, type RepeatedColumn } from './records';
 export type * from './types';
-export { fixed, fixed3, lengthText, angleText } from './format';
+export { fixed, fixed3, lengthText, angleText, byteSizeText } from './format';
 export { ENGINE_VERSION } from './version';

@@ -16,13 +16,6 @@ export function relativeTime(iso: string, now = Date.now()): string {
   return dateTime(iso);
 }
 
-/**
- * File sizes as people read them, in decimal units (SI prefixes: 1 kB = 1000 bytes, 1 MB = 1000 kB):
- * 812 B, 41.2 kB, 1.3 MB. The one formatter for sizes on every page.
- */
-export function fileSize(bytes: number): string {
-  if (!Number.isFinite(bytes) || bytes < 0) return '—';
-  if (bytes < 1000) return `${bytes} B`;
-  if (bytes < 999_950) return `${(bytes / 1000).toFixed(1)} kB`;
-  return `${(bytes / 1_000_000).toFixed(1)} MB`;
-}
+// File sizes as people read them, in decimal units (1 kB = 1000 bytes): 812 B, 41.2 kB, 1.3 MB.
+// The one rule for sizes on every page and in the server's messages (shared/core/format.ts).
+export { byteSizeText as fileSize } from '../../shared/core';

@@ -94,6 +94,7 @@ describe('sign-in', () => {
     const res = await ag.a.post('/api/auth/sign-in').set('X-CSRF-Token', ag.token).send({ email: 'a@b.c', password: 'x'.repeat(1_200_000) });
     expect(res.status).toBe(413);
     expect(res.body).toMatchObject({ ...problemShape, title: 'Body too large' });
+    expect(res.body.detail).toBe('The request body is larger than the 1.0 MB limit.'); // express.json limit '1mb' = 1,048,576 bytes, in decimal units
     expect(await sessionCount(ctx.ds)).toBe(0);
   });
 

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { angleText, fixed, fixed3, lengthText } from '../../../shared/core';
+import { angleText, byteSizeText, fixed, fixed3, lengthText } from '../../../shared/core';
 
 describe('the one formatter of lengths and angles', () => {
   test.each([
@@ -40,4 +40,8 @@ describe('the one formatter of lengths and angles', () => {
       expect(fixed3(v)).toBe(want === '-0.000' ? '0.000' : want);
     }
   });
+});
+
+test('sizes in decimal units (SI prefixes, 1 kB = 1000 bytes), as the body-too-large message writes them', () => {
+  expect([999, 1000, 41_234, 999_949, 1_048_576, -1].map(byteSizeText)).toEqual(['999 B', '1.0 kB', '41.2 kB', '999.9 kB', '1.0 MB', '—']);
 });
