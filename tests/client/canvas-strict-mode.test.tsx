@@ -1,6 +1,6 @@
 // The canvas schedules its draws on animation frames. React's StrictMode (on in development builds)
 // mounts every component twice: effects run, are cleaned up and run again. The frame scheduling
-// must survive that, or the canvas paints once and never again (issue 11, item 1).
+// must survive that, or the canvas paints once and never again.
 import { act, fireEvent, render, screen } from '@testing-library/react';
 import { readFileSync } from 'node:fs';
 import { StrictMode } from 'react';

@@ -1,4 +1,4 @@
-// First use (issue 11, item 6): a browser that was not signed in gets the sign-in form at once,
+// First use: a browser that was not signed in gets the sign-in form at once,
 // not a bare loading bar while /api/me answers; a browser that was signed in waits for it.
 import { render, screen } from '@testing-library/react';
 import { createMemoryRouter, RouterProvider } from 'react-router-dom';

@@ -1,4 +1,4 @@
-// Home's "Next for you" per role (issue 11, item 11).
+// Home's "Next for you": the next task for each role the user holds.
 import { describe, expect, it } from 'vitest';
 import type { ProgramDto } from '../../shared/schemas/program.schema';
 import { homeTasks } from '../../src/app/routes/home-tasks';

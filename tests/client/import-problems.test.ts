@@ -1,4 +1,4 @@
-// The Import page's words for a file it cannot read (issue 11, items 10 and 11): the units point
+// The Import page's words for a file it cannot read: the units point
 // at the Units control (no command-line flag), an empty file is called empty, sizes use kB = 1000 B.
 import { describe, expect, it } from 'vitest';
 import { describeImportProblem, isUnitsMessage, withoutFlags } from '../../src/app/routes/programs/stages/import-problems';

@@ -1,4 +1,4 @@
-// Panelize help (issue 11, item 9): the default pitch, overlapping boards as typed, the outline
+// Panelize help: the default pitch, overlapping boards as typed, the outline
 // fitted to the parts.
 import { describe, expect, it } from 'vitest';
 import { BOARD_GAP_MM, defaultPitch, outlineFromExtent, panelProblems } from '../../src/app/routes/programs/stages/panelize-help';

@@ -1,4 +1,4 @@
-// Issue 11, items 2, 3, 5 and the override form of item 11, on the pages as the user meets them:
+// Trusting a review, on the pages as the user meets them:
 // the review summary and the release confirmation, "waive on every board" on Verify, the package
 // safeguard before a shared edit, and the override form's Cancel and kept filter.
 import { screen, waitFor, within } from '@testing-library/react';
@@ -113,7 +113,7 @@ afterEach(() => {
 // These pages draw the panel and type into forms: on a loaded machine that takes seconds, so each
 // describe block below allows 20 s per test.
 
-describe('Verify: waive on every board (item 3)', { timeout: 20_000 }, () => {
+describe('Verify: waive on every board', { timeout: 20_000 }, () => {
   it('offers "waive on every board" for a finding repeated per board and sends one decision', async () => {
     // samples/faulty/README.md: body-overlap 1:R1,1:R2 and 2:R1,2:R2 — the same pair on both boards
     expect(bodyOverlaps.map((f) => f.refs.join())).toEqual(['1:R1,1:R2', '2:R1,2:R2']);
@@ -165,7 +165,7 @@ describe('Verify: waive on every board (item 3)', { timeout: 20_000 }, () => {
   });
 });
 
-// ---- the review summary and the release confirmation (item 2) ---------------------------------
+// ---- the review summary and the release confirmation ------------------------------------------
 const reviewFindings = allFindings.filter((f) => f.kind === 'body-overlap' || f.kind === 'courtyard-overlap');
 const summary: ReviewSummaryDto = reviewSummarySchema.parse({
   revisionId: REV,
@@ -185,7 +185,7 @@ const summary: ReviewSummaryDto = reviewSummarySchema.parse({
   changes: { since: { revisionId: '7a1f0c2e-4b1d-4c3e-9f00-0000000000bb', label: 'A', releasedAt: T }, added: ['D7'], removed: ['R5'], moved: ['D2'], changed: ['Q1'], settings: ['panel'], overrides: ['C3'] },
 });
 
-describe('Release: the review summary and a confirmed release (item 2)', { timeout: 20_000 }, () => {
+describe('Release: the review summary and a confirmed release', { timeout: 20_000 }, () => {
   const inReview = () => detail({ state: 'in-review', findings: reviewFindings, waivers: [everyBoardWaiver], overrides: { C3: { nozzle: 'N07', reason: 'N05 tips wear fast on this line' } }, can: { edit: false, submit: false, review: true, withdraw: true, newRevision: false } });
 
   it('the reviewer sees waivers (reason, who, when), overrides with reasons and the changes since the last release', async () => {
@@ -264,7 +264,7 @@ describe('Release: the review summary and a confirmed release (item 2)', { timeo
   });
 });
 
-// ---- the override form (item 11) ---------------------------------------------------------------
+// ---- the override form: Cancel, and the filter kept ----------------------------------------------
 describe('Assign: the override form', { timeout: 20_000 }, () => {
   it('has a Cancel, and saving an override keeps the table’s filter', async () => {
     const state = { rev: detail({ findings: null, findingsSummary: null, checkedAt: null }) };
@@ -303,8 +303,8 @@ describe('Assign: the override form', { timeout: 20_000 }, () => {
   });
 });
 
-// ---- the package safeguard (item 5) ---------------------------------------------------------------
-describe('Library: a shared package edit shows where it is used and asks first (item 5)', { timeout: 20_000 }, () => {
+// ---- the package safeguard before a shared edit ---------------------------------------------------
+describe('Library: a shared package edit shows where it is used and asks first', { timeout: 20_000 }, () => {
   const ID = '0b5d3c1e-8f3a-4f0e-9a51-2f8f4c0b1a11';
   const meta = { version: 4, updatedAt: T, updatedBy: 'lena@harrowcreek.example' };
   const pkg: PackageDto = { ...blankPackage('LED0603'), id: ID, ...meta, bodyLength: 1.6, bodyWidth: 0.8, aliases: [{ id: ID, pattern: 'LED-0603*', version: 1 }], warnings: [] };

@@ -1,4 +1,4 @@
-// The workspace's stage marks: a ✓ only when that stage's own condition holds (issue 11, item 8).
+// The workspace's stage marks: a ✓ only when that stage's own condition holds.
 import { describe, expect, it } from 'vitest';
 import type { Finding } from '../../shared/schemas/finding.schema';
 import type { RevisionDetail } from '../../shared/schemas/program.schema';

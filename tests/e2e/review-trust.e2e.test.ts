@@ -1,4 +1,4 @@
-// Issue 11 "Review trust" in Chromium, on the app `npm start` serves: the stage marks, the import
+// Trusting a review, in Chromium, on the app `npm start` serves: the stage marks, the import
 // without units and the empty file, one rule for file sizes, the Panelize help (pitch, overlap,
 // fit outline to parts, selects), the fiducials drawn on Align, a selection that does not move
 // the canvas, overlays and toasts off the drawing, and Home's next task for each role.

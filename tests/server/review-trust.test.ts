@@ -1,5 +1,5 @@
-// Issue 11, items 2, 3 and 5: the review summary, waivers on every board, and where a package is
-// used before it is changed.
+// Trusting a review on the server: the review summary, waivers that cover every board, and where a
+// package is used before a shared edit changes it.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { reviewSummarySchema, revisionDetailSchema } from '../../shared/schemas/program.schema';
 import { packageUsageSchema } from '../../shared/schemas/library.schema';
@@ -81,7 +81,7 @@ async function prepareFaulty() {
   return revId;
 }
 
-describe('waive on every board (issue 11 item 3)', () => {
+describe('a waiver on every board: one decision for the same finding on each board', () => {
   it('one decision covers the same kind and refs on every board, boards added later included, and folds the single-board waivers', async () => {
     const revId = await prepareFaulty();
     const d0 = await detail(author, revId);
@@ -156,7 +156,7 @@ describe('waive on every board (issue 11 item 3)', () => {
   });
 });
 
-describe('review summary (issue 11 item 2)', () => {
+describe('the review summary before release: findings with their waivers, overrides, parts changed since the last release', () => {
   it('lists findings by kind with each waiver (reason, who, when), every override with its reason, and says "first release"', async () => {
     const revId = await prepareFaulty();
     const d = await detail(author, revId);
@@ -215,7 +215,7 @@ describe('review summary (issue 11 item 2)', () => {
   });
 });
 
-describe('package usage before a shared edit (issue 11 item 5)', () => {
+describe('package usage is listed before a shared package is edited', () => {
   it('lists the revisions in work and released that place the package; released ones are not affected', async () => {
     const res = await author.a.post('/api/programs').set('X-CSRF-Token', author.token).send({ name: 'led-strip', product: 'LED status strip', board: 'HCI-LS2 rev A' });
     const revA: string = res.body.revisions[0].id;
