@@ -54,8 +54,13 @@ const AssignStage = lazy(chunks.assign);
 const VerifyStage = lazy(chunks.verify);
 const ReleaseStage = lazy(chunks.release);
 
-/** A loader that only starts the page's chunk (a failed start shows when the page renders). */
+/**
+ * A loader that only starts the page's chunk (a failed start shows when the page renders). A
+ * browser not signed in when last seen is on its way to the sign-in form: its pages' chunks would
+ * only compete with that form for the network and the main thread, so they load after sign-in.
+ */
 const preload = (...names: Chunk[]) => () => {
+  if (!hasSessionHint()) return null;
   for (const n of names) void chunks[n]().catch(() => {});
   return null;
 };
