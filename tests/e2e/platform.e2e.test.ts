@@ -50,7 +50,7 @@ describe('signing in as each demo role in Chromium', () => {
     const page = await h.newPage();
     try {
       await signInAs(page, h.baseUrl, 'ada@harrowcreek.example', DEMO_PASSWORD);
-      await page.getByRole('link', { name: 'Users' }).click();
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Users' }).click();
       await page.getByRole('button', { name: 'New user' }).click();
       const form = page.getByRole('form', { name: 'New user' });
       await form.getByLabel('Name').fill('Mira Solberg');

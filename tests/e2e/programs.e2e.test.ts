@@ -20,7 +20,7 @@ describe('a program from upload to released run file, in Chromium', () => {
     await signInAs(page, h.baseUrl, 'ellis@harrowcreek.example', DEMO_PASSWORD);
 
     // Programs → new program
-    await page.getByRole('link', { name: 'Programs' }).click();
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Programs' }).click();
     await page.getByRole('button', { name: 'New program' }).first().click();
     const form = page.getByRole('form', { name: 'New program' });
     await form.getByLabel('Program name').fill('strip-e2e');
