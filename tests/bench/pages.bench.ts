@@ -19,6 +19,7 @@ import { DEMO_PASSWORD } from '../../server/db/seed/demo-users';
 import { seedDemo } from '../../server/db/seed/index';
 import { startAppProcess, type AppProcess } from '../helpers/app-process';
 import { ensureProductionBuild } from '../helpers/client-build';
+import { runAsScript } from './run-main';
 
 const TARGET_PAGE_MS = 1500;
 const TARGET_FIRST_CHECK_MS = 2000;
@@ -166,19 +167,4 @@ export async function run(): Promise<Record<string, unknown>> {
   }
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) {
-  const limit = setTimeout(() => {
-    console.error(`[bench:pages] gave up after ${RUN_LIMIT_MS / 60_000} minutes`);
-    process.exit(1);
-  }, RUN_LIMIT_MS);
-  limit.unref();
-  run()
-    .then((figures) => {
-      console.log(JSON.stringify(figures));
-      process.exit(0);
-    })
-    .catch((err) => {
-      console.error(err);
-      process.exit(1);
-    });
-}
+runAsScript(import.meta.url, 'bench:pages', RUN_LIMIT_MS, run);
